@@ -26,7 +26,10 @@ export type ProblemCode =
   | 'input.file-not-found'
   | 'input.would-overwrite'
   | 'input.bad-recipe'
-  | 'input.bad-dips';
+  | 'input.bad-dips'
+  | 'input.read-failed'
+  | 'output.write-failed'
+  | 'ipc.untrusted-sender';
 
 export interface FileProblem {
   code: ProblemCode;
