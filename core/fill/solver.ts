@@ -43,3 +43,9 @@ export interface GapSolverResult {
 }
 
 export type SolverName = 'lsq' | 'net';
+
+/**
+ * A solver function: the least-squares solver (core/fill/lsq.ts) and the network (core/nn/) both have this
+ * shape. `settings` is the solver's own plain-data settings object (JSON, as saved in recipes).
+ */
+export type GapSolverFn = (input: GapSolverInput, settings: Record<string, unknown>) => GapSolverResult | Promise<GapSolverResult>;

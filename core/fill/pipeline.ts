@@ -1,0 +1,204 @@
+/**
+ * One gather, start to finish: slopes, fill, hold-out check, amplitude check, optional second pass.
+ * The CLI's worker threads and the UI's Web Worker both call fillGather, so a gather gets the same answer
+ * wherever it is filled.
+ *
+ * Layout: trace-major (core/grid/gather.ts); slopes on the pair grid (core/pwd/operator.ts).
+ * Filled traces are estimates, not recordings: the hold-out score is the measure of trust.
+ */
+import { BugError, throwIfCancelled, type CancelToken } from '../problems';
+import { snrDb } from '../quality/snr';
+import { fillRmsRatio, gapRmsRatio } from './amplitude';
+import { slopesForFill, type SlopeEstimator } from './fill-slopes';
+import { designHoldout, type HoldoutKind } from './holdout';
+import { LSQ_DEFAULTS, solveLeastSquares, type LsqSettings } from './lsq';
+import { countToFill, unknownMask, type FillPlan } from './plan';
+import type { GapSolverFn, GapSolverInput, GapSolverResult, SolverName, SolverProgress } from './solver';
+
+export interface FillSettings {
+  solver: SolverName;
+  lsq: LsqSettings;
+  /** Settings handed to the network solver (core/nn), plain data. */
+  net: Record<string, unknown>;
+  /** Run the hold-out check (on by default; only tests of the solver itself switch it off). */
+  holdout: boolean;
+  /** Re-estimate slopes on the filled gather and fill again; kept only when the hold-out score improves. */
+  secondPass: boolean;
+  /** Low-pass for coarse-grid slopes on decimated gathers, as a fraction of the RMS frequency. */
+  lowPassFraction: number;
+}
+
+export const FILL_DEFAULTS: Readonly<FillSettings> = {
+  solver: 'lsq',
+  lsq: { ...LSQ_DEFAULTS },
+  net: {},
+  holdout: true,
+  secondPass: false,
+  lowPassFraction: 0.6,
+};
+
+export type FillStage = 'slopes' | 'fill' | 'holdout' | 'second-pass';
+
+export interface FillProgress {
+  stage: FillStage;
+  /** Overall fraction done, 0..1. */
+  fraction: number;
+  /** The solver's own progress within the stage, when it reports one (loss curves). */
+  solver?: SolverProgress;
+}
+
+export interface FillHooks {
+  cancel?: CancelToken;
+  onProgress?: (p: FillProgress) => void;
+  /** Slope estimator (core/slope); needed unless the input carries slopes. */
+  estimator?: SlopeEstimator;
+  /** Solvers by name; 'lsq' is built in, 'net' is supplied by core/nn. */
+  solvers?: Partial<Record<SolverName, GapSolverFn>>;
+}
+
+export interface FillGatherInput {
+  /** Regular-grid gather; positions the plan fills may hold anything. */
+  data: Float32Array | Float64Array;
+  nTraces: number;
+  nSamples: number;
+  plan: FillPlan;
+  /** Slopes to use as given (a dip file or an edited field): no estimation, and the hold-out uses them too. */
+  slopePairs?: Float64Array;
+}
+
+export interface FillGatherResult {
+  /** Whole gather; recorded traces bit-for-bit as given, filled traces at the plan's positions. */
+  filled: Float32Array;
+  slopePairs: Float64Array;
+  unknownTraces: Uint8Array;
+  missingCount: number;
+  solver: SolverName;
+  iterations: number;
+  converged: boolean;
+  seconds: number;
+  /** SNR (dB) of the hold-out fill on the hidden recorded traces only; NaN when no hold-out was possible. */
+  holdoutSnrDb: number;
+  holdoutKind: HoldoutKind;
+  holdoutTraces: number[];
+  /** RMS of the widest filled block over the RMS of recorded traces beside it (≈1 when amplitudes hold). */
+  gapRmsRatio: number;
+  /** RMS of all filled traces over the RMS of all recorded traces. */
+  fillRmsRatio: number;
+  secondPass: 'off' | 'kept' | 'rejected';
+  details: Record<string, number | string>;
+}
+
+function fullSettings(s: Partial<FillSettings>): FillSettings {
+  return { ...FILL_DEFAULTS, ...s, lsq: { ...LSQ_DEFAULTS, ...(s.lsq ?? {}) }, net: { ...(s.net ?? {}) } };
+}
+
+const lsqFn: GapSolverFn = (input, settings) => solveLeastSquares(input, settings as Partial<LsqSettings>);
+
+export async function fillGather(input: FillGatherInput, settingsIn: Partial<FillSettings> = {}, hooks: FillHooks = {}): Promise<FillGatherResult> {
+  const start = Date.now();
+  const settings = fullSettings(settingsIn);
+  const { nTraces, nSamples, plan } = input;
+  if (input.data.length !== nTraces * nSamples) throw new RangeError(`fillGather: data length ${input.data.length} ≠ ${nTraces}×${nSamples}`);
+  if (plan.nTraces !== nTraces) throw new RangeError(`fillGather: plan has ${plan.nTraces} positions, gather ${nTraces}`);
+  if (input.slopePairs && input.slopePairs.length !== Math.max(0, nTraces - 1) * nSamples)
+    throw new RangeError(`fillGather: slope length ${input.slopePairs.length} ≠ (${nTraces}−1)×${nSamples}`);
+  const cancel = hooks.cancel;
+  const report = (stage: FillStage, fraction: number, solver?: SolverProgress) => hooks.onProgress?.({ stage, fraction, solver });
+  const unknown = unknownMask(plan);
+  const missingCount = countToFill(plan);
+  const d = Float64Array.from(input.data);
+  for (let x = 0; x < nTraces; x++) if (unknown[x]) d.fill(0, x * nSamples, (x + 1) * nSamples);
+  const base = {
+    unknownTraces: unknown, missingCount, solver: settings.solver,
+    holdoutKind: 'none' as HoldoutKind, holdoutTraces: [] as number[], secondPass: 'off' as const,
+  };
+  if (missingCount === 0 || nTraces < 2) {
+    return {
+      ...base, filled: Float32Array.from(input.data), slopePairs: input.slopePairs ?? new Float64Array(Math.max(0, nTraces - 1) * nSamples),
+      iterations: 0, converged: true, seconds: (Date.now() - start) / 1000, holdoutSnrDb: Number.NaN, gapRmsRatio: Number.NaN, fillRmsRatio: Number.NaN, details: {},
+    };
+  }
+  const solve = hooks.solvers?.[settings.solver] ?? (settings.solver === 'lsq' ? lsqFn : undefined);
+  if (!solve) throw new BugError(`fillGather: no solver registered under "${settings.solver}"`);
+  const solverSettings = (settings.solver === 'lsq' ? settings.lsq : settings.net) as unknown as Record<string, unknown>;
+  const estimate = (data: Float64Array, unk: Uint8Array, factor: number): Float64Array => {
+    if (!hooks.estimator) throw new BugError('fillGather: no slopes given and no slope estimator supplied');
+    return slopesForFill(data, nTraces, nSamples, unk, hooks.estimator, { factor, lowPassFraction: settings.lowPassFraction }, cancel);
+  };
+  const runSolver = async (data: Float64Array, unk: Uint8Array, slopes: Float64Array, stage: FillStage, f0: number, f1: number): Promise<GapSolverResult> => {
+    const si: GapSolverInput = {
+      data, nTraces, nSamples, unknownTraces: unk, slopePairs: slopes, cancel,
+      onProgress: (p) => report(stage, f0 + ((f1 - f0) * p.step) / Math.max(1, p.totalSteps), p),
+    };
+    return await solve(si, solverSettings);
+  };
+  const passes = settings.secondPass ? 2 : 1;
+  const span = 1 / passes;
+
+  // First pass: slopes, fill, hold-out.
+  report('slopes', 0);
+  const slopes1 = input.slopePairs ?? estimate(d, unknown, plan.factor);
+  throwIfCancelled(cancel);
+  const fill1 = await runSolver(d, unknown, slopes1, 'fill', 0.1 * span, 0.55 * span);
+  const design = settings.holdout ? designHoldout(unknown, plan.factor) : { kind: 'none' as HoldoutKind, hidden: [] };
+  const unkH = Uint8Array.from(unknown);
+  for (const h of design.hidden) unkH[h] = 1;
+  const dH = Float64Array.from(d);
+  for (const h of design.hidden) dH.fill(0, h * nSamples, (h + 1) * nSamples);
+  let holdoutSnr = Number.NaN;
+  let fillH: GapSolverResult | null = null;
+  if (design.hidden.length) {
+    report('holdout', 0.55 * span);
+    const slopesH = input.slopePairs ?? estimate(dH, unkH, plan.factor);
+    fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6 * span, span);
+    holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
+  }
+
+  let chosen = fill1;
+  let slopes = slopes1;
+  let second: 'off' | 'kept' | 'rejected' = 'off';
+  const details: Record<string, number | string> = { ...fill1.details, holdoutHidden: design.hidden.length };
+  if (settings.secondPass && hooks.estimator) {
+    // Re-estimate on the filled gather (now without holes, so on the fine grid) and fill again.
+    report('second-pass', 0.5);
+    const none = new Uint8Array(nTraces);
+    const slopes2 = estimate(fill1.data, none, 1);
+    const fill2 = await runSolver(d, unknown, slopes2, 'second-pass', 0.55, 0.75);
+    let snr2 = Number.NaN;
+    if (fillH) {
+      const slopesH2 = estimate(fillH.data, none, 1);
+      const fillH2 = await runSolver(dH, unkH, slopesH2, 'second-pass', 0.75, 1);
+      snr2 = snrDb(d, fillH2.data, design.hidden, nSamples);
+    }
+    details.firstPassHoldoutSnrDb = holdoutSnr;
+    details.secondPassHoldoutSnrDb = snr2;
+    if (snr2 > holdoutSnr) {
+      chosen = fill2;
+      slopes = slopes2;
+      holdoutSnr = snr2;
+      second = 'kept';
+    } else second = 'rejected';
+  }
+
+  const filled = Float32Array.from(input.data);
+  for (let x = 0; x < nTraces; x++) {
+    if (!unknown[x]) continue;
+    for (let t = 0; t < nSamples; t++) filled[x * nSamples + t] = chosen.data[x * nSamples + t];
+  }
+  report('fill', 1);
+  return {
+    ...base,
+    filled,
+    slopePairs: slopes,
+    iterations: chosen.iterations,
+    converged: chosen.converged,
+    seconds: (Date.now() - start) / 1000,
+    holdoutSnrDb: holdoutSnr,
+    holdoutKind: design.kind,
+    holdoutTraces: design.hidden,
+    gapRmsRatio: gapRmsRatio(chosen.data, unknown, nSamples),
+    fillRmsRatio: fillRmsRatio(chosen.data, unknown, nSamples),
+    secondPass: second,
+    details,
+  };
+}

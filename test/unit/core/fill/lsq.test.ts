@@ -1,0 +1,95 @@
+import { describe, expect, it } from 'vitest';
+import { solveLeastSquares } from '../../../../core/fill/lsq';
+import { gapRmsRatio } from '../../../../core/fill/amplitude';
+import { addHyperbola, addPlaneWave, hyperbolaSlopeField, type HyperbolaSpec } from '../../../../core/synth/events';
+import { snrDb } from '../../../../core/quality/snr';
+import { CancelledError } from '../../../../core/problems';
+
+const nT = 61, nS = 400;
+
+function decimated(R: number): Uint8Array {
+  const m = new Uint8Array(nT);
+  for (let x = 0; x < nT; x++) m[x] = x % R ? 1 : 0;
+  m[nT - 1] = 0;
+  return m;
+}
+function centredGap(G: number): Uint8Array {
+  const m = new Uint8Array(nT);
+  const a = Math.floor((nT - G) / 2);
+  m.fill(1, a, a + G);
+  return m;
+}
+function fill(u: Float64Array, slopes: Float64Array, unk: Uint8Array, order: 1 | 2 = 2) {
+  const d = u.slice();
+  const hidden: number[] = [];
+  for (let x = 0; x < nT; x++) if (unk[x]) { hidden.push(x); d.fill(0, x * nS, (x + 1) * nS); }
+  const r = solveLeastSquares({ data: d, nTraces: nT, nSamples: nS, unknownTraces: unk, slopePairs: slopes }, { order });
+  return { r, snr: snrDb(u, r.data, hidden, nS), d };
+}
+
+// Hyperbolas of methods.md §6.6 (v = 0.5 traces/sample, t0 = 100, 200, 300; max slope ≈ 1.5).
+const HYP: HyperbolaSpec[] = [100, 200, 300].map((t0) => ({ t0Samples: t0, velocityTracesPerSample: 0.5, apexTrace: 0, fpCyclesPerSample: 0.08 }));
+const hyp = () => {
+  const u = new Float64Array(nT * nS);
+  for (const e of HYP) addHyperbola(u, nT, nS, e);
+  const pos = Array.from({ length: nT - 1 }, (_, p) => p + 0.5);
+  return { u, slopes: hyperbolaSlopeField(new Float64Array((nT - 1) * nS), pos, nS, HYP) };
+};
+
+describe('least-squares fill with exact slopes (analytic truth, core/synth/events.ts)', () => {
+  // methods.md §6.5 [D]: constant σ ∈ {0.5, 1, 1.5}, f_p ≤ 0.1, R = 2..4, exact slope: SNR > 75 dB (N = 1).
+  it.each([0.5, 1, 1.5])('plane wave σ = %s decimated by 2, 3, 4: SNR on the filled traces > 75 dB (order 1 and 2)', (sigma) => {
+    const u = addPlaneWave(new Float64Array(nT * nS), nT, nS, { t0Samples: 100, slopeSamplesPerTrace: sigma, fpCyclesPerSample: 0.1 });
+    const slopes = new Float64Array((nT - 1) * nS).fill(sigma);
+    for (const R of [2, 3, 4]) for (const order of [1, 2] as const) expect(fill(u, slopes, decimated(R), order).snr).toBeGreaterThan(75);
+  });
+
+  // methods.md §6.5 [D]: hyperbolas with exact slope, decimation R = 2/3/4 > 60 dB; centred 16-trace gap > 40 dB.
+  it('hyperbolas decimated by 2, 3, 4: > 60 dB; centred 16-trace gap: > 40 dB with amplitude kept (RMS ratio 0.95–1.05)', () => {
+    const { u, slopes } = hyp();
+    for (const R of [2, 3, 4]) expect(fill(u, slopes, decimated(R)).snr).toBeGreaterThan(60);
+    const gap = centredGap(16);
+    const { r, snr } = fill(u, slopes, gap);
+    expect(snr).toBeGreaterThan(40);
+    const ratio = gapRmsRatio(r.data, gap, nS) / gapRmsRatio(u, gap, nS);
+    expect(ratio).toBeGreaterThan(0.95);
+    expect(ratio).toBeLessThan(1.05);
+  });
+
+  it('holds known traces exactly and reports iterations, convergence and block counts', () => {
+    const { u, slopes } = hyp();
+    const gap = centredGap(8);
+    const { r, d } = fill(u, slopes, gap);
+    let changed = 0;
+    for (let x = 0; x < nT; x++) if (!gap[x]) for (let t = 0; t < nS; t++) if (r.data[x * nS + t] !== d[x * nS + t]) changed++;
+    expect(changed).toBe(0);
+    expect(r.converged).toBe(true);
+    expect(r.iterations).toBeGreaterThan(0);
+    expect(r.iterations).toBeLessThan(300);
+    expect(r.details.blocks).toBe(1);
+  });
+
+  it('the painted start needs fewer iterations than a zero start for the same answer', () => {
+    const { u, slopes } = hyp();
+    const gap = centredGap(16);
+    const d = u.slice();
+    d.fill(0, 22 * nS, 38 * nS);
+    const withPaint = solveLeastSquares({ data: d, nTraces: nT, nSamples: nS, unknownTraces: gap, slopePairs: slopes }, { tolerance: 1e-6 });
+    const fromZero = solveLeastSquares({ data: d, nTraces: nT, nSamples: nS, unknownTraces: gap, slopePairs: slopes }, { paint: false, tolerance: 1e-6, maxIterations: 2000 });
+    const hidden = Array.from({ length: 16 }, (_, i) => 22 + i);
+    expect(withPaint.iterations).toBeLessThan(fromZero.iterations);
+    expect(Math.abs(snrDb(u, withPaint.data, hidden, nS) - snrDb(u, fromZero.data, hidden, nS))).toBeLessThan(15);
+  });
+
+  it('cancels', () => {
+    const { u, slopes } = hyp();
+    expect(() => solveLeastSquares({ data: u, nTraces: nT, nSamples: nS, unknownTraces: centredGap(16), slopePairs: slopes, cancel: { cancelled: true } })).toThrow(CancelledError);
+  });
+
+  it('passes a gather with nothing to fill through unchanged', () => {
+    const { u, slopes } = hyp();
+    const r = solveLeastSquares({ data: u, nTraces: nT, nSamples: nS, unknownTraces: new Uint8Array(nT), slopePairs: slopes });
+    expect(r.data).toEqual(u);
+    expect(r.iterations).toBe(0);
+  });
+});
