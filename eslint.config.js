@@ -2,6 +2,7 @@
 import tseslint from 'typescript-eslint';
 
 const nodeBuiltins = ['node:*', 'fs', 'path', 'os', 'child_process', 'worker_threads', 'url', 'crypto', 'stream', 'process', 'util', 'events', 'buffer', 'readline', 'http', 'net', 'zlib'];
+const bareBuiltins = (message) => nodeBuiltins.filter((n) => n !== 'node:*').map((name) => ({ name, message }));
 const noRandom = {
   selector: "MemberExpression[object.name='Math'][property.name='random']",
   message: 'Math.random is banned here: use the seeded generator in core/rng.ts.',
@@ -26,9 +27,10 @@ export default tseslint.config(
     files: ['core/**/*.ts'],
     rules: {
       'no-restricted-imports': ['error', {
-        paths: [{ name: 'electron', message: 'core/ is pure TypeScript: no Electron.' }],
+        // Bare built-in names are exact paths: as patterns, 'events' would also match core/synth/events.
+        paths: [{ name: 'electron', message: 'core/ is pure TypeScript: no Electron.' }, ...bareBuiltins('core/ is pure TypeScript: no Node imports (it runs in Web Workers too).')],
         patterns: [
-          { group: nodeBuiltins, message: 'core/ is pure TypeScript: no Node imports (it runs in Web Workers too).' },
+          { group: ['node:*'], message: 'core/ is pure TypeScript: no Node imports (it runs in Web Workers too).' },
           { group: ['**/app/**', '../app/**', '../../app/**'], message: 'core/ imports nothing outside core/.' },
         ],
       }],
@@ -40,9 +42,9 @@ export default tseslint.config(
     files: ['app/renderer/**/*.ts'],
     rules: {
       'no-restricted-imports': ['error', {
-        paths: [{ name: 'electron', message: 'The renderer talks to the main process only through window.dipweave (preload).' }],
+        paths: [{ name: 'electron', message: 'The renderer talks to the main process only through window.dipweave (preload).' }, ...bareBuiltins('The renderer runs in a browser: no Node imports.')],
         patterns: [
-          { group: nodeBuiltins, message: 'The renderer runs in a browser: no Node imports.' },
+          { group: ['node:*'], message: 'The renderer runs in a browser: no Node imports.' },
           { group: ['**/main/**', '**/host/**', '**/cli/**', '**/preload/**'], message: 'The renderer never imports app/main, app/host, app/cli or app/preload.' },
         ],
       }],
