@@ -13,7 +13,8 @@ if (existsSync(hostDir)) {
 }
 
 await build({
-  entryPoints: nodeEntries.filter(existsSync),
+  // Flat output (dist-node/main.mjs, dist-node/<name>.worker.mjs) whatever folders the entries live in.
+  entryPoints: nodeEntries.filter(existsSync).map((p) => ({ in: p, out: p.split('/').pop().replace(/\.ts$/, '') })),
   bundle: true,
   platform: 'node',
   format: 'esm',

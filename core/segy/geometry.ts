@@ -102,6 +102,21 @@ function median(values: number[]): number {
   return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
 }
 
+const MAX_STEP_DIVISOR = 8;
+
+function fittingStep(positionsM: Float64Array, originM: number, medianStep: number, tol: number): number {
+  for (let d = 1; d <= MAX_STEP_DIVISOR; d++) {
+    const step = medianStep / d;
+    let ok = true;
+    for (const p of positionsM) {
+      const x = (p - originM) / step;
+      if (Math.abs(x - Math.round(x)) > tol) { ok = false; break; }
+    }
+    if (ok) return step;
+  }
+  return medianStep;
+}
+
 function irregular(message: string, found: string, hint: string): InputFileError {
   return new InputFileError({ code: 'geometry.irregular', severity: 'error', message, found, hint });
 }
@@ -171,8 +186,10 @@ export function gatherGeometry(headers: readonly TraceHeader[], data: Float32Arr
     const eps = 1e-6 * Math.max(1, pmax - pmin);
     const steps: number[] = [];
     for (let i = 1; i < sorted.length; i++) if (sorted[i] - sorted[i - 1] > eps) steps.push(sorted[i] - sorted[i - 1]);
-    // Median step: robust to gaps (a gap is one long step) and to jitter.
-    const step0 = userSpacing ?? median(steps);
+    // Median step: robust to gaps (a gap is one long step) and to jitter. When some traces sit between the
+    // median grid's positions (decimated data with a few full-rate traces), take the largest whole fraction
+    // of the median step on which every trace sits.
+    const step0 = userSpacing ?? fittingStep(positionsM, pmin, median(steps), tol);
     for (let i = 0; i < nTraces; i++) gridIndexOfTrace[i] = Math.round((positionsM[i] - pmin) / step0);
     spacingM = step0;
     originM = pmin;

@@ -322,7 +322,13 @@ export async function openSegy(source: ByteSource, options: OpenOptions = {}): P
       expected: `a whole number of ${traceBytes}-byte traces (240-byte header + ${nSamples} samples × ${bps} bytes)`,
       hint: `The samples-per-trace field (found ${nSamples}) or the format code (${format.code}) may be wrong, or the file is truncated (last trace has ${dataBytes % traceBytes} of ${traceBytes} bytes).`,
     };
-    if (strict) throw segyError('segy.trace-size-mismatch', name, 'the trace data does not divide into whole traces.', problem);
+    // When the first trace header confirms the binary header's sample count, the layout is self-consistent
+    // and the only explanation left is a file cut short.
+    const truncated = firstCount === nSamples;
+    if (strict)
+      throw truncated
+        ? segyError('segy.truncated', name, `the last trace is incomplete: the file ends ${traceBytes - (dataBytes % traceBytes)} bytes early.`, { ...problem, byteOffset: dataEnd })
+        : segyError('segy.trace-size-mismatch', name, 'the trace data does not divide into whole traces.', problem);
     warnings.push(segyWarning('segy.trace-size-mismatch', name, 'the last, incomplete trace is ignored.', problem));
   }
   if (traceCount === 0)
