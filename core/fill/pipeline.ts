@@ -9,10 +9,11 @@
 import { BugError, throwIfCancelled, type CancelToken } from '../problems';
 import { snrDb } from '../quality/snr';
 import { fillRmsRatio, gapRmsRatio } from './amplitude';
-import { slopesForFill, type SlopeEstimator } from './fill-slopes';
+import { clipWildSlopes, slopeEstimator, slopesForFill, type SlopeEstimator } from './fill-slopes';
+import type { SlopeOptions } from '../slope/index';
 import { designHoldout, type HoldoutKind } from './holdout';
 import { LSQ_DEFAULTS, solveLeastSquares, type LsqSettings } from './lsq';
-import { countToFill, unknownMask, type FillPlan } from './plan';
+import { countToFill, detectDecimationFactor, unknownMask, type FillPlan } from './plan';
 import type { GapSolverFn, GapSolverInput, GapSolverResult, SolverName, SolverProgress } from './solver';
 
 export interface FillSettings {
@@ -24,8 +25,8 @@ export interface FillSettings {
   holdout: boolean;
   /** Re-estimate slopes on the filled gather and fill again; kept only when the hold-out score improves. */
   secondPass: boolean;
-  /** Low-pass for coarse-grid slopes on decimated gathers, as a fraction of the RMS frequency. */
-  lowPassFraction: number;
+  /** Slope estimation options (core/slope), dip edits included; plain data as saved in recipes. */
+  slope: SlopeOptions;
 }
 
 export const FILL_DEFAULTS: Readonly<FillSettings> = {
@@ -34,7 +35,7 @@ export const FILL_DEFAULTS: Readonly<FillSettings> = {
   net: {},
   holdout: true,
   secondPass: false,
-  lowPassFraction: 0.6,
+  slope: {},
 };
 
 export type FillStage = 'slopes' | 'fill' | 'holdout' | 'second-pass';
@@ -50,7 +51,7 @@ export interface FillProgress {
 export interface FillHooks {
   cancel?: CancelToken;
   onProgress?: (p: FillProgress) => void;
-  /** Slope estimator (core/slope); needed unless the input carries slopes. */
+  /** Replaces the core/slope estimator built from settings.slope (tests, custom estimators). */
   estimator?: SlopeEstimator;
   /** Solvers by name; 'lsq' is built in, 'net' is supplied by core/nn. */
   solvers?: Partial<Record<SolverName, GapSolverFn>>;
@@ -89,7 +90,7 @@ export interface FillGatherResult {
 }
 
 function fullSettings(s: Partial<FillSettings>): FillSettings {
-  return { ...FILL_DEFAULTS, ...s, lsq: { ...LSQ_DEFAULTS, ...(s.lsq ?? {}) }, net: { ...(s.net ?? {}) } };
+  return { ...FILL_DEFAULTS, ...s, lsq: { ...LSQ_DEFAULTS, ...(s.lsq ?? {}) }, net: { ...(s.net ?? {}) }, slope: { ...(s.slope ?? {}) } };
 }
 
 const lsqFn: GapSolverFn = (input, settings) => solveLeastSquares(input, settings as Partial<LsqSettings>);
@@ -121,9 +122,12 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   const solve = hooks.solvers?.[settings.solver] ?? (settings.solver === 'lsq' ? lsqFn : undefined);
   if (!solve) throw new BugError(`fillGather: no solver registered under "${settings.solver}"`);
   const solverSettings = (settings.solver === 'lsq' ? settings.lsq : settings.net) as unknown as Record<string, unknown>;
+  let clippedSlopes = 0;
+  const estimator = hooks.estimator ?? slopeEstimator(settings.slope);
   const estimate = (data: Float64Array, unk: Uint8Array, factor: number): Float64Array => {
-    if (!hooks.estimator) throw new BugError('fillGather: no slopes given and no slope estimator supplied');
-    return slopesForFill(data, nTraces, nSamples, unk, hooks.estimator, { factor, lowPassFraction: settings.lowPassFraction }, cancel);
+    const sl = slopesForFill(data, nTraces, nSamples, unk, estimator, factor, cancel);
+    clippedSlopes += clipWildSlopes(sl, data, unk, nTraces, nSamples);
+    return sl;
   };
   const runSolver = async (data: Float64Array, unk: Uint8Array, slopes: Float64Array, stage: FillStage, f0: number, f1: number): Promise<GapSolverResult> => {
     const si: GapSolverInput = {
@@ -149,7 +153,9 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   let fillH: GapSolverResult | null = null;
   if (design.hidden.length) {
     report('holdout', 0.55 * span);
-    const slopesH = input.slopePairs ?? estimate(dH, unkH, plan.factor);
+    // Hiding every k-th recorded trace of a decimated gather can leave a regular grid of a larger factor.
+    const factorH = plan.factor > 1 ? Math.max(plan.factor, detectDecimationFactor(Array.from(unkH, (v) => 1 - v))) : 1;
+    const slopesH = input.slopePairs ?? estimate(dH, unkH, factorH);
     fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6 * span, span);
     holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
   }
@@ -158,7 +164,7 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   let slopes = slopes1;
   let second: 'off' | 'kept' | 'rejected' = 'off';
   const details: Record<string, number | string> = { ...fill1.details, holdoutHidden: design.hidden.length };
-  if (settings.secondPass && hooks.estimator) {
+  if (settings.secondPass && !input.slopePairs) {
     // Re-estimate on the filled gather (now without holes, so on the fine grid) and fill again.
     report('second-pass', 0.5);
     const none = new Uint8Array(nTraces);
@@ -180,6 +186,7 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
     } else second = 'rejected';
   }
 
+  details.clippedSlopeSamples = clippedSlopes;
   const filled = Float32Array.from(input.data);
   for (let x = 0; x < nTraces; x++) {
     if (!unknown[x]) continue;
