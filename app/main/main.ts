@@ -161,7 +161,8 @@ export function createWindow(): BrowserWindow {
 
 function makeHost(): HostFiles {
   return new HostFiles({
-    samplesDir: join(appRoot(), 'samples'),
+    // In a package the demo files sit beside the archive (electron.config.ts asarUnpack).
+    samplesDir: join(appRoot().replace(/\.asar$/, '.asar.unpacked'), 'samples'),
     recentStorePath: join(app.getPath('userData'), 'recent-files.json'),
     chooseOpenPath: async () => {
       const options = {
