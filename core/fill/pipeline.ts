@@ -11,6 +11,7 @@ import { snrDb } from '../quality/snr';
 import { fillRmsRatio, gapRmsRatio } from './amplitude';
 import { clipWildSlopes, slopeEstimator, slopesForFill, type SlopeEstimator } from './fill-slopes';
 import type { SlopeOptions } from '../slope/index';
+import { solveGapsNet, type NetSolverOptions } from '../nn/solver';
 import { designHoldout, type HoldoutKind } from './holdout';
 import { LSQ_DEFAULTS, solveLeastSquares, type LsqSettings } from './lsq';
 import { countToFill, detectDecimationFactor, unknownMask, type FillPlan } from './plan';
@@ -53,7 +54,7 @@ export interface FillHooks {
   onProgress?: (p: FillProgress) => void;
   /** Replaces the core/slope estimator built from settings.slope (tests, custom estimators). */
   estimator?: SlopeEstimator;
-  /** Solvers by name; 'lsq' is built in, 'net' is supplied by core/nn. */
+  /** Replaces built-in solvers by name (e.g. the network on a worker pool). */
   solvers?: Partial<Record<SolverName, GapSolverFn>>;
 }
 
@@ -93,7 +94,11 @@ function fullSettings(s: Partial<FillSettings>): FillSettings {
   return { ...FILL_DEFAULTS, ...s, lsq: { ...LSQ_DEFAULTS, ...(s.lsq ?? {}) }, net: { ...(s.net ?? {}) }, slope: { ...(s.slope ?? {}) } };
 }
 
-const lsqFn: GapSolverFn = (input, settings) => solveLeastSquares(input, settings as Partial<LsqSettings>);
+/** Built-in solvers: least squares (core/fill/lsq.ts) and the coordinate network (core/nn/solver.ts, in this thread). */
+const BUILTIN_SOLVERS: Record<SolverName, GapSolverFn> = {
+  lsq: (input, settings) => solveLeastSquares(input, settings as Partial<LsqSettings>),
+  net: (input, settings) => solveGapsNet(input, settings as NetSolverOptions),
+};
 
 export async function fillGather(input: FillGatherInput, settingsIn: Partial<FillSettings> = {}, hooks: FillHooks = {}): Promise<FillGatherResult> {
   const start = Date.now();
@@ -119,7 +124,7 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
       iterations: 0, converged: true, seconds: (Date.now() - start) / 1000, holdoutSnrDb: Number.NaN, gapRmsRatio: Number.NaN, fillRmsRatio: Number.NaN, details: {},
     };
   }
-  const solve = hooks.solvers?.[settings.solver] ?? (settings.solver === 'lsq' ? lsqFn : undefined);
+  const solve = hooks.solvers?.[settings.solver] ?? BUILTIN_SOLVERS[settings.solver];
   if (!solve) throw new BugError(`fillGather: no solver registered under "${settings.solver}"`);
   const solverSettings = (settings.solver === 'lsq' ? settings.lsq : settings.net) as unknown as Record<string, unknown>;
   let clippedSlopes = 0;
