@@ -183,7 +183,7 @@ export function gatherGeometry(headers: readonly TraceHeader[], data: Float32Arr
     let pmin = Infinity, pmax = -Infinity;
     for (const p of positionsM) { if (p < pmin) pmin = p; if (p > pmax) pmax = p; }
     const sorted = Array.from(positionsM).sort((a, b) => a - b);
-    const eps = 1e-6 * Math.max(1, pmax - pmin);
+    const eps = 1e-4; // 0.1 mm: repeated positions are not steps
     const steps: number[] = [];
     for (let i = 1; i < sorted.length; i++) if (sorted[i] - sorted[i - 1] > eps) steps.push(sorted[i] - sorted[i - 1]);
     // Median step: robust to gaps (a gap is one long step) and to jitter. When some traces sit between the
