@@ -1,0 +1,75 @@
+/**
+ * Builds the variable-density picture of a whole gather, with the dip layer blended in, as packed RGBA
+ * pixels (width = nTraces, height = nSamples; pixel (trace, sample) at sample * nTraces + trace).
+ * Pure arithmetic, no DOM: the view copies the pixels into an ImageData once and then only blits it while
+ * zooming and panning. Input layout is trace-major (core/grid/gather.ts).
+ */
+import { lutIndex, packRgba, type Lut } from './colormap';
+import { TraceStatus } from './trace-status';
+
+export interface DipLayer {
+  /** Slope per trace position and sample (trace-major), in the unit of `maxAbs`. */
+  readonly field: Float32Array;
+  /** 0..1 per trace position and sample; null = full confidence everywhere. */
+  readonly confidence: Float32Array | null;
+  /** |slope| that maps to full colour. */
+  readonly maxAbs: number;
+  /** 0..1, the layer's strength where confidence is 1. */
+  readonly opacity: number;
+  readonly lut: Lut;
+}
+
+export interface ImageInput {
+  readonly nTraces: number;
+  readonly nSamples: number;
+  /** Gained samples, about [-1, 1] at the clip (render/gain.ts). */
+  readonly shown: Float32Array;
+  readonly status: Uint8Array;
+  /** Null for wiggle-only display: the background is plain paper. */
+  readonly lut: Lut | null;
+  readonly dip: DipLayer | null;
+}
+
+const PAPER = packRgba(252, 251, 247, 255);
+const HATCH_A = packRgba(246, 226, 196, 255);
+const HATCH_B = packRgba(232, 180, 110, 255);
+const DEAD = packRgba(70, 72, 80, 255);
+
+/** Fills `out` (length nTraces·nSamples). @returns out */
+export function buildSectionPixels(out: Uint32Array, input: ImageInput): Uint32Array {
+  const { nTraces, nSamples, shown, status, lut, dip } = input;
+  const packed = lut?.packed;
+  const dipPacked = dip?.lut.packed;
+  const dipInv = dip && dip.maxAbs > 0 ? 1 / dip.maxAbs : 0;
+  for (let x = 0; x < nTraces; x++) {
+    const st = status[x];
+    const base = x * nSamples;
+    if (st === TraceStatus.missing) {
+      // Diagonal hatch: reads as "nothing here" at any zoom and in grey print.
+      for (let t = 0; t < nSamples; t++) out[t * nTraces + x] = ((t + 3 * x) % 8) < 3 ? HATCH_B : HATCH_A;
+      continue;
+    }
+    if (st === TraceStatus.dead) {
+      for (let t = 0; t < nSamples; t++) out[t * nTraces + x] = DEAD;
+      continue;
+    }
+    for (let t = 0; t < nSamples; t++) {
+      let c = packed ? packed[lutIndex(shown[base + t])] : PAPER;
+      if (dipPacked && dip) {
+        const w = dip.opacity * (dip.confidence ? dip.confidence[base + t] : 1);
+        if (w > 0.004) c = blend(c, dipPacked[lutIndex(dip.field[base + t] * dipInv)], w);
+      }
+      out[t * nTraces + x] = c;
+    }
+  }
+  return out;
+}
+
+/** Linear blend of two packed colours, weight w of the second. */
+export function blend(a: number, b: number, w: number): number {
+  const v = 1 - w;
+  const r = (a & 255) * v + (b & 255) * w;
+  const g = ((a >>> 8) & 255) * v + ((b >>> 8) & 255) * w;
+  const bl = ((a >>> 16) & 255) * v + ((b >>> 16) & 255) * w;
+  return packRgba(r | 0, g | 0, bl | 0, 255);
+}

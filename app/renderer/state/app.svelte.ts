@@ -1,0 +1,445 @@
+/**
+ * The whole job in one place: the open file, the current gather, the view, the dip field and the fill,
+ * and the calls into the core worker. Components read it and call its methods; nothing here touches the
+ * DOM except through io/host.ts (saves) and the injected storage.
+ */
+import type { FileProblem } from '../../../core/problems';
+import { TraceStatus } from '../render/trace-status';
+import { ViewState } from './view.svelte';
+import { DipsState } from './dips.svelte';
+import { FillState } from './fill.svelte';
+import { Autosaver, loadWork, type KeyValueStore, type SavedWork } from './autosave';
+import { DIP_EDIT_MODEL } from './dip-edit-model';
+import { isCancelled, WorkerCallError, type RunningCall, type WorkerClient } from '../workers/rpc';
+import type { FillResult, GatherKeyName, GatherPayload, HeaderField, OpenedFile, SourceRef, SpectraResult } from '../workers/protocol';
+import { saveBytes } from '../io/host';
+import type { SaveKind } from '../../shared/ipc';
+import { slopeUnitFactor, SLOPE_UNIT_LABEL } from '../../../core/slope/units';
+import type { FillProgress } from '../../../core/fill/pipeline';
+
+export type Step = 'open' | 'look' | 'dips' | 'fill' | 'check' | 'save';
+
+export interface Notice {
+  kind: 'error' | 'warning' | 'info';
+  text: string;
+  code?: string;
+}
+
+export interface Cursor {
+  trace: number;
+  sample: number;
+}
+
+export class AppState {
+  readonly view = new ViewState();
+  readonly dips = new DipsState();
+  readonly fill = new FillState();
+  step = $state<Step>('open');
+  file = $state.raw<OpenedFile | null>(null);
+  gather = $state.raw<GatherPayload | null>(null);
+  gatherIndex = $state(0);
+  busy = $state<string | null>(null);
+  notices = $state.raw<Notice[]>([]);
+  cursor = $state.raw<Cursor | null>(null);
+  header = $state.raw<HeaderField[] | null>(null);
+  headerTrace = $state(-1);
+  spectra = $state.raw<SpectraResult | null>(null);
+  restoredFrom = $state<string | null>(null);
+  spacingM = $state<number | null>(null);
+  exporting = $state<string | null>(null);
+  readonly #io: WorkerClient;
+  readonly #jobs: WorkerClient;
+  readonly #store: KeyValueStore;
+  readonly autosaver: Autosaver;
+  #fillCall: RunningCall<FillResult> | null = null;
+  /** The last exported SEG-Y, kept so it can be opened again at once (and checked by the end-to-end test). */
+  lastExport: { blob: Blob; name: string } | null = null;
+  #saved: SavedWork | null = null;
+  #headerTimer: ReturnType<typeof setTimeout> | null = null;
+
+  constructor(io: WorkerClient, jobs: WorkerClient, store: KeyValueStore) {
+    this.#io = io;
+    this.#jobs = jobs;
+    this.#store = store;
+    this.autosaver = new Autosaver(store);
+  }
+
+  notify(n: Notice): void {
+    this.notices = [...this.notices.slice(-4), n];
+  }
+
+  dismiss(i: number): void {
+    this.notices = this.notices.filter((_, j) => j !== i);
+  }
+
+  /** Turns any failure into a notice: coded input problems verbatim with their code, defects as such. */
+  report(e: unknown, doing: string): void {
+    if (isCancelled(e)) {
+      this.notify({ kind: 'info', text: `${doing}: cancelled.` });
+      return;
+    }
+    if (e instanceof WorkerCallError && e.payload.kind === 'input') {
+      this.notify({ kind: 'error', text: e.payload.message, code: e.payload.problem?.code });
+      return;
+    }
+    const msg = e instanceof Error ? e.message : String(e);
+    const code = /\[([a-z]+\.[a-z-]+)\]\s*$/.exec(msg)?.[1];
+    this.notify({ kind: 'error', text: code ? msg : `${doing} failed (a defect in Dipweave, please report it): ${msg}`, code });
+  }
+
+  #warn(problems: readonly FileProblem[]): void {
+    for (const p of problems) this.notify({ kind: 'warning', text: p.message + (p.hint ? ` ${p.hint}` : ''), code: p.code });
+  }
+
+  // ---- opening -------------------------------------------------------------------------------------------
+
+  async openSource(source: SourceRef, name: string): Promise<boolean> {
+    this.busy = `Opening ${name}…`;
+    try {
+      this.autosaver.flush();
+      const opened = await this.#io.call('open', { source, name });
+      this.spacingM = null;
+      this.file = opened;
+      this.#saved = loadWork(this.#store, opened.name, opened.sizeBytes);
+      this.restoredFrom = this.#saved ? this.#saved.savedAtIso : null;
+      if (this.#saved?.settings) this.#restoreSettings(this.#saved.settings);
+      this.#warn(opened.warnings);
+      this.gatherIndex = 0;
+      await this.loadGather(0);
+      this.step = 'look';
+      return true;
+    } catch (e) {
+      this.report(e, `Opening ${name}`);
+      return false;
+    } finally {
+      this.busy = null;
+    }
+  }
+
+  async regroup(key: GatherKeyName): Promise<void> {
+    if (!this.file) return;
+    this.busy = 'Grouping traces…';
+    try {
+      this.autosaver.flush();
+      this.file = await this.#io.call('regroup', { key, spacingM: this.spacingM });
+      await this.loadGather(0);
+    } catch (e) {
+      this.report(e, 'Grouping');
+    } finally {
+      this.busy = null;
+    }
+  }
+
+  /** Trace spacing for files whose headers carry no geometry (null = use the headers). */
+  async setSpacing(m: number | null): Promise<void> {
+    this.spacingM = m;
+    if (this.file) await this.regroup(this.file.key);
+  }
+
+  async stepGather(delta: number): Promise<void> {
+    if (!this.file) return;
+    const next = Math.min(this.file.gathers.length - 1, Math.max(0, this.gatherIndex + delta));
+    if (next !== this.gatherIndex) await this.loadGather(next);
+  }
+
+  async loadGather(index: number): Promise<void> {
+    if (!this.file) return;
+    this.autosaver.flush();
+    const g = await this.#io.call('read', { gather: index });
+    this.#warn(g.warnings);
+    this.gatherIndex = index;
+    this.gather = g;
+    this.view.setShape(g.nTraces, g.nSamples);
+    const work = this.#saved?.gathers[String(g.keyValue)];
+    let edits = work ? DIP_EDIT_MODEL.validate(work.edits) : [];
+    if (edits === null) {
+      this.notify({ kind: 'warning', text: 'Saved dip edits for this gather could not be read and were left out.' });
+      edits = [];
+    }
+    this.dips.setGather(g.nTraces, g.nSamples, edits);
+    this.fill.setGather(g.present, g.dead, work?.bad ?? []);
+    this.spectra = null;
+    this.header = null;
+    this.headerTrace = -1;
+  }
+
+  // ---- what is on screen -----------------------------------------------------------------------------------
+
+  /** Status per grid position, for the strip, the legend and the picture. */
+  status(): Uint8Array {
+    const g = this.gather;
+    if (!g) return new Uint8Array(0);
+    const st = new Uint8Array(g.nTraces);
+    const unknown = this.fill.unknown;
+    const filled = this.fill.result !== null && this.view.compare !== 'before';
+    for (let x = 0; x < g.nTraces; x++) {
+      if (g.filledFlag[x]) st[x] = TraceStatus.filled;
+      else if (filled && unknown[x]) st[x] = TraceStatus.filled;
+      else if (!g.present[x]) st[x] = TraceStatus.missing;
+      else if (unknown[x] && g.dead[x]) st[x] = TraceStatus.dead;
+      else if (unknown[x]) st[x] = TraceStatus.markedBad;
+      else st[x] = TraceStatus.live;
+    }
+    return st;
+  }
+
+  /** Samples for the chosen comparison: before (input), after (filled) or their difference. */
+  shownSamples(): Float32Array | null {
+    const g = this.gather;
+    if (!g) return null;
+    const r = this.fill.result;
+    if (!r || this.view.compare === 'before') return g.data;
+    if (this.view.compare === 'after') return r.data;
+    const d = new Float32Array(r.data.length);
+    for (let i = 0; i < d.length; i++) d[i] = r.data[i] - g.data[i];
+    return d;
+  }
+
+  setCursor(c: Cursor | null): void {
+    this.cursor = c;
+    const g = this.gather;
+    const trace = c ? Math.floor(c.trace) : -1;
+    if (!g || trace < 0 || trace === this.headerTrace) return;
+    this.headerTrace = trace;
+    // Header reads go to the worker; debounce so moving across many traces issues one read.
+    if (this.#headerTimer) clearTimeout(this.#headerTimer);
+    this.#headerTimer = setTimeout(() => void this.#readHeader(trace), 60);
+  }
+
+  async #readHeader(trace: number): Promise<void> {
+    const g = this.gather;
+    if (!g) return;
+    const ft = g.fileTrace[trace];
+    if (ft < 0) {
+      this.header = [];
+      return;
+    }
+    try {
+      this.header = await this.#io.call('header', { fileTrace: ft });
+    } catch (e) {
+      this.report(e, 'Reading a trace header');
+    }
+  }
+
+  // ---- slopes ----------------------------------------------------------------------------------------------
+
+  async estimateSlopes(): Promise<void> {
+    const g = this.gather;
+    if (!g || this.dips.running) return;
+    this.dips.running = true;
+    try {
+      const plan = this.fill.plan!;
+      const r = await this.#jobs.call('slopes', {
+        data: g.data.slice(), nTraces: g.nTraces, nSamples: g.nSamples, dtSeconds: g.dtSeconds,
+        unknown: this.fill.unknown, factor: plan.factor, options: { ...this.dips.options },
+      });
+      this.dips.setEstimate(r);
+      this.view.dipLayer = true;
+    } catch (e) {
+      this.report(e, 'Slope estimation');
+    } finally {
+      this.dips.running = false;
+    }
+  }
+
+  /** Edits change the work: autosave shortly after. */
+  touched(): void {
+    const f = this.file;
+    const g = this.gather;
+    if (!f || !g) return;
+    this.autosaver.schedule(() => this.#snapshot());
+  }
+
+  #snapshot(): SavedWork {
+    const f = this.file!;
+    const g = this.gather!;
+    const prev = this.#saved?.fileName === f.name && this.#saved.sizeBytes === f.sizeBytes ? this.#saved : null;
+    const gathers = { ...(prev?.gathers ?? {}) };
+    gathers[String(g.keyValue)] = { edits: [...this.dips.edits], bad: this.fill.badTraces };
+    const work: SavedWork = {
+      version: 1, fileName: f.name, sizeBytes: f.sizeBytes, gatherKey: f.key, savedAtIso: new Date().toISOString(),
+      gathers, settings: this.#settings(),
+    };
+    this.#saved = work;
+    return work;
+  }
+
+  #settings(): Record<string, unknown> {
+    return { view: this.view.toJSON(), slope: { ...this.dips.options }, fill: { ...this.fill.settings } };
+  }
+
+  #restoreSettings(s: Record<string, unknown>): void {
+    if (s.view && typeof s.view === 'object') this.view.restore(s.view as Record<string, never>);
+  }
+
+  // ---- fill ------------------------------------------------------------------------------------------------
+
+  async runFill(): Promise<void> {
+    const g = this.gather;
+    const plan = this.fill.plan;
+    if (!g || !plan || this.fill.running) return;
+    if (this.fill.toFill === 0) {
+      this.notify({ kind: 'info', text: 'Nothing to fill in this gather: every position holds a recorded trace.' });
+      return;
+    }
+    this.fill.begin(performance.now());
+    const call = this.#jobs.start('fill', {
+      data: g.data.slice(), nTraces: g.nTraces, nSamples: g.nSamples, plan,
+      slopePairs: this.dips.effectivePairs(), settings: { ...this.fill.settings }, slopeOptions: { ...this.dips.options },
+    }, {
+      onProgress: (p: FillProgress) => this.fill.progress(p.stage, p.fraction, p.solver, performance.now()),
+    });
+    this.#fillCall = call;
+    try {
+      const r = await call.result;
+      this.fill.finish(r);
+      this.view.compare = 'after';
+      this.spectra = null;
+    } catch (e) {
+      this.fill.finish(null);
+      this.report(e, 'Fill');
+    } finally {
+      this.#fillCall = null;
+    }
+  }
+
+  cancelFill(): void {
+    this.#fillCall?.cancel();
+  }
+
+  async computeSpectra(): Promise<void> {
+    const g = this.gather;
+    if (!g) return;
+    const r = this.fill.result;
+    const unknown = this.fill.unknown;
+    const live: number[] = [];
+    const filled: number[] = [];
+    for (let x = 0; x < g.nTraces; x++) (unknown[x] ? filled : live).push(x);
+    try {
+      this.spectra = await this.#jobs.call('spectra', {
+        before: g.data.slice(), after: r ? r.data.slice() : null, nTraces: g.nTraces, nSamples: g.nSamples,
+        dtSeconds: g.dtSeconds, spacingM: g.spacingM, liveTraces: live, filledTraces: filled,
+      });
+    } catch (e) {
+      this.report(e, 'Spectra');
+    }
+  }
+
+  // ---- export ----------------------------------------------------------------------------------------------
+
+  /** Saves through the desktop dialog or as a download, and says where it went. */
+  async saveFile(name: string, kind: SaveKind, data: Blob | Uint8Array): Promise<boolean> {
+    try {
+      const r = await saveBytes(name, kind, data);
+      if (r.saved) this.notify({ kind: 'info', text: `Saved ${r.name} (${(r.sizeBytes / 1024).toFixed(0)} KiB).` });
+      return r.saved;
+    } catch (e) {
+      this.report(e, `Saving ${name}`);
+      return false;
+    }
+  }
+
+  #baseName(): string {
+    return (this.file?.name ?? 'gather').replace(/\.(sgy|segy)$/i, '');
+  }
+
+  /** How the traces were made, for the textual-header note of the output. */
+  methodText(): string {
+    const s = this.fill.settings;
+    const solver = s.solver === 'lsq' ? `LEAST-SQUARES PLANE-WAVE FILL (CG, MAX ${s.maxIterations} IT.)` : `COORDINATE NETWORK (${s.steps} STEPS, SEED ${s.seed})`;
+    const o = this.dips.options;
+    const dips = `${o.method === 'pwd' ? 'PLANE-WAVE DESTRUCTION' : 'STRUCTURE TENSOR'} SLOPES, RADII ${o.radiusTimeSamples} SAMPLES X ${o.radiusTraces} TRACES`;
+    const edits = this.dips.edits.length ? `, ${this.dips.edits.length} HAND EDITS` : '';
+    const score = this.fill.result?.holdoutSnrDb;
+    const ho = score !== null && score !== undefined && Number.isFinite(score) ? `; HOLD-OUT SCORE ${score.toFixed(1)} DB` : '';
+    return `${solver}; ${dips}${edits}${ho}. DIPWEAVE DESKTOP.`;
+  }
+
+  async exportGather(): Promise<void> {
+    const g = this.gather;
+    if (!g || this.exporting) return;
+    if (!this.fill.result && this.fill.toFill > 0) {
+      await this.runFill();
+      if (!this.fill.result) return;
+    }
+    const r = this.fill.result;
+    this.exporting = 'Writing the gather…';
+    try {
+      const out = await this.#io.call('writeGather', {
+        gather: this.gatherIndex, data: r ? r.data : g.data, filled: r ? this.fill.unknown : new Uint8Array(g.nTraces), method: this.methodText(),
+      });
+      this.lastExport = { blob: out.blob, name: `${this.#baseName()}-${g.keyValue}-filled.sgy` };
+      await this.saveFile(this.lastExport.name, 'segy', out.blob);
+    } catch (e) {
+      this.report(e, 'Writing SEG-Y');
+    } finally {
+      this.exporting = null;
+    }
+  }
+
+  async exportAll(): Promise<void> {
+    const f = this.file;
+    if (!f || this.exporting) return;
+    this.autosaver.flush();
+    const snap = this.gather ? this.#snapshot() : null;
+    const r = this.fill.result;
+    this.exporting = 'Filling every gather…';
+    try {
+      const out = await this.#io.call('fillAll', {
+        slope: { ...this.dips.options }, settings: { ...this.fill.settings }, method: this.methodText(),
+        work: Object.fromEntries(Object.entries(snap?.gathers ?? {}).map(([k, v]) => [k, { edits: v.edits, bad: v.bad }])),
+        current: r && this.gather ? { gather: this.gatherIndex, data: r.data, filled: this.fill.unknown } : null,
+      }, {
+        onProgress: (p) => { this.exporting = `Filling gather ${p.gather + 1} of ${p.of} (key ${p.keyValue})…`; },
+      });
+      const scores = out.report.map((x) => x.holdoutSnrDb).filter((x): x is number => x !== null && Number.isFinite(x));
+      this.notify({ kind: 'info', text: `Filled ${out.filledTraces} traces in ${out.gathers} gathers.${scores.length ? ` Hold-out scores ${Math.min(...scores).toFixed(1)} to ${Math.max(...scores).toFixed(1)} dB.` : ''}` });
+      this.lastExport = { blob: out.blob, name: `${this.#baseName()}-filled.sgy` };
+      await this.saveFile(this.lastExport.name, 'segy', out.blob);
+    } catch (e) {
+      this.report(e, 'Filling all gathers');
+    } finally {
+      this.exporting = null;
+    }
+  }
+
+  async exportSlopes(): Promise<void> {
+    const g = this.gather;
+    const field = this.dips.effectiveTraces();
+    if (!g || !field || this.exporting) return;
+    const unit = this.view.slopeUnit;
+    let factor: number;
+    try {
+      factor = slopeUnitFactor(unit, { sampleIntervalS: g.dtSeconds, traceSpacingM: g.spacingM ?? undefined });
+    } catch (e) {
+      this.report(e, 'Slope units');
+      return;
+    }
+    const values = new Float32Array(field.length);
+    for (let i = 0; i < field.length; i++) values[i] = field[i] * factor;
+    this.exporting = 'Writing the slope field…';
+    try {
+      const label = SLOPE_UNIT_LABEL[unit];
+      const o = this.dips.options;
+      const out = await this.#io.call('writeSlopes', {
+        gather: this.gatherIndex, slopeTraces: values, unitLabel: label,
+        method: `SLOPE FIELD, NOT AMPLITUDES: SAMPLE VALUES ARE SLOPES IN ${label.toUpperCase()} (POSITIVE = LATER AT HIGHER POSITION); ${o.method === 'pwd' ? 'PLANE-WAVE DESTRUCTION' : 'STRUCTURE TENSOR'}, RADII ${o.radiusTimeSamples} X ${o.radiusTraces}${this.dips.edits.length ? `, ${this.dips.edits.length} HAND EDITS` : ''}.`,
+      });
+      await this.saveFile(`${this.#baseName()}-${g.keyValue}-dips-${unit}.sgy`, 'segy', out.blob);
+    } catch (e) {
+      this.report(e, 'Writing the slope field');
+    } finally {
+      this.exporting = null;
+    }
+  }
+
+  // ---- recipes ---------------------------------------------------------------------------------------------
+
+  async saveRecipe(): Promise<void> {
+    this.notify({ kind: 'info', text: 'Recipes: pending.' });
+  }
+
+  async loadRecipe(_file: Blob): Promise<void> {
+    this.notify({ kind: 'info', text: 'Recipes: pending.' });
+  }
+}
