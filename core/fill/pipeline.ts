@@ -168,7 +168,24 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   let chosen = fill1;
   let slopes = slopes1;
   let second: 'off' | 'kept' | 'rejected' = 'off';
-  const details: Record<string, number | string> = { ...fill1.details, holdoutHidden: design.hidden.length };
+  const details: Record<string, number | string> = { ...fill1.details, holdoutHidden: design.hidden.length, slopeChoice: input.slopePairs ? 'given' : 'estimated' };
+  if (!input.slopePairs && fillH && settings.solver === 'lsq') {
+    // Cross-validated guard (methods.md §5): where the estimated slopes are poor (incoherent or strongly aliased
+    // data), flat slopes, which make the fill a smooth blend of the neighbours, may score better on the hold-out.
+    // Keep whichever the hold-out prefers.
+    const flat = new Float64Array(slopes1.length);
+    const flatH = await runSolver(dH, unkH, flat, 'holdout', 0.9 * span, span);
+    const snrFlat = snrDb(d, flatH.data, design.hidden, nSamples);
+    details.estimatedSlopesHoldoutSnrDb = holdoutSnr;
+    details.flatSlopesHoldoutSnrDb = snrFlat;
+    if (snrFlat > holdoutSnr) {
+      chosen = await runSolver(d, unknown, flat, 'fill', 0.9 * span, span);
+      slopes = flat;
+      holdoutSnr = snrFlat;
+      fillH = flatH;
+      details.slopeChoice = 'flat';
+    }
+  }
   if (settings.secondPass && !input.slopePairs) {
     // Re-estimate on the filled gather (now without holes, so on the fine grid) and fill again.
     report('second-pass', 0.5);
