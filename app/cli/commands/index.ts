@@ -1,5 +1,6 @@
 /** The command table. Each command lives in its own file and registers here. */
 import type { CliCommand } from '../context';
 import { inspectCommand } from './inspect';
+import { fillCommand } from './fill';
 
-export const COMMANDS: CliCommand[] = [inspectCommand];
+export const COMMANDS: CliCommand[] = [inspectCommand, fillCommand];
