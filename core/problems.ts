@@ -27,6 +27,7 @@ export type ProblemCode =
   | 'input.would-overwrite'
   | 'input.bad-recipe'
   | 'input.bad-dips'
+  | 'slope.no-live-pairs'
   | 'input.read-failed'
   | 'output.write-failed'
   | 'ipc.untrusted-sender';
