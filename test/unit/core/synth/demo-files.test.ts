@@ -6,7 +6,7 @@ import { readFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { buildDemoFiles, DEMO_DEFAULT_FILE, DEMO_FILES, demoTraces } from '../../../../core/synth/demo-segy';
 import { DEMO_SCENARIO as SC } from '../../../../core/synth/demo-scenario';
-import { obstructedChannels, receiverAlongM } from '../../../../core/synth/marine-geometry';
+import { obstructedChannels, receiverAlongM, traceGeometry } from '../../../../core/synth/marine-geometry';
 import { TRACE_HEADER, type TraceFieldName } from '../../../../core/segy/fields';
 import { memoryByteSource, openSegy, indexGathers, parseGatherKey, readGather, gatherGeometry } from '../../../../core/segy';
 
@@ -54,6 +54,11 @@ describe('headers describe a consistent towed-streamer geometry', () => {
       expect(Math.abs(field(full, i, 'ENSEMBLE_X') / 100 - (sx + gx) / 2)).toBeLessThanOrEqual(0.011);
       expect(Math.abs(field(full, i, 'ENSEMBLE_Y') / 100 - (sy + gy) / 2)).toBeLessThanOrEqual(0.011);
       expect(field(full, i, 'COORDINATE_SCALAR')).toBe(-100);
+      // Water depths (bytes 61-64 and 65-68, elevation scalar −100 at 69-70) as the seabed model says.
+      const g = traceGeometry(SC, Math.floor(i / SC.nChannels), (i % SC.nChannels) + 1);
+      expect(field(full, i, 'ELEVATION_SCALAR')).toBe(-100);
+      expect(Math.abs(field(full, i, 'SOURCE_WATER_DEPTH') / 100 - g.waterDepthAtSourceM)).toBeLessThanOrEqual(0.005 + 1e-9);
+      expect(Math.abs(field(full, i, 'RECEIVER_WATER_DEPTH') / 100 - g.waterDepthAtGroupM)).toBeLessThanOrEqual(0.005 + 1e-9);
       expect(field(full, i, 'TRACE_ID_CODE')).toBe(1);
       expect(field(full, i, 'SAMPLES_IN_TRACE')).toBe(SC.nSamples);
       expect(field(full, i, 'SAMPLE_INTERVAL_US')).toBe(SC.sampleIntervalUs);
