@@ -90,6 +90,24 @@ export interface FillGatherResult {
   details: Record<string, number | string>;
 }
 
+/**
+ * Decimation factor of the hold-out problem: hiding every k-th recorded trace of a decimated gather can leave a
+ * regular grid of a larger factor, possibly except for the last recorded trace (off the coarser grid: the
+ * estimator ignores it).
+ */
+function holdoutFactor(unkH: Uint8Array, factor: number): number {
+  const live = Array.from(unkH, (v) => 1 - v);
+  let k = detectDecimationFactor(live);
+  if (k === 1) {
+    const last = live.lastIndexOf(1);
+    if (last > 0) {
+      live[last] = 0;
+      k = detectDecimationFactor(live);
+    }
+  }
+  return Math.max(factor, k);
+}
+
 function fullSettings(s: Partial<FillSettings>): FillSettings {
   return { ...FILL_DEFAULTS, ...s, lsq: { ...LSQ_DEFAULTS, ...(s.lsq ?? {}) }, net: { ...(s.net ?? {}) }, slope: { ...(s.slope ?? {}) } };
 }
@@ -159,7 +177,7 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   if (design.hidden.length) {
     report('holdout', 0.55 * span);
     // Hiding every k-th recorded trace of a decimated gather can leave a regular grid of a larger factor.
-    const factorH = plan.factor > 1 ? Math.max(plan.factor, detectDecimationFactor(Array.from(unkH, (v) => 1 - v))) : 1;
+    const factorH = plan.factor > 1 ? holdoutFactor(unkH, plan.factor) : 1;
     const slopesH = input.slopePairs ?? estimate(dH, unkH, factorH);
     fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6 * span, span);
     holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
