@@ -70,3 +70,20 @@ describe('header byte positions and format codes', () => {
     for (const [code, size] of Object.entries(sizes)) expect(SAMPLE_FORMATS[Number(code) as 1].bytesPerSample).toBe(size);
   });
 });
+
+describe('readTraceFields', () => {
+  it('agrees with the field table for every field, in both byte orders', async () => {
+    const { readTraceFields } = await import('../../../../core/segy/trace-header');
+    const { readFieldAt } = await import('../../../../core/segy/fields');
+    const { Rng } = await import('../../../../core/rng');
+    const rng = new Rng(3);
+    const b = new Uint8Array(300);
+    for (let i = 0; i < b.length; i++) b[i] = rng.int(0, 256);
+    for (const little of [false, true]) {
+      const got = readTraceFields(b, 17, little);
+      const view = new DataView(b.buffer, 17, 240);
+      expect(Object.keys(got)).toEqual(Object.keys(TRACE_HEADER));
+      for (const [name, spec] of Object.entries(TRACE_HEADER)) expect(got[name as keyof typeof got], name).toBe(readFieldAt(view, spec.byte - 1, spec.kind, little));
+    }
+  });
+});
