@@ -15,6 +15,8 @@ import type { FillResult, GatherKeyName, GatherPayload, HeaderField, OpenedFile,
 import { saveBytes } from '../io/host';
 import type { SaveKind } from '../../shared/ipc';
 import { slopeUnitFactor, SLOPE_UNIT_LABEL } from '../../../core/slope/units';
+import { badTracesForGather, editsForGather, makeRecipe, parseRecipe, type Recipe, type RecipeGather } from '../../../core/recipe/recipe';
+import type { DipEdit } from '../../../core/slope/edits';
 import type { FillProgress } from '../../../core/fill/pipeline';
 
 export type Step = 'open' | 'look' | 'dips' | 'fill' | 'check' | 'save';
@@ -435,11 +437,73 @@ export class AppState {
 
   // ---- recipes ---------------------------------------------------------------------------------------------
 
-  async saveRecipe(): Promise<void> {
-    this.notify({ kind: 'info', text: 'Recipes: pending.' });
+  /** The recipe of the work so far: settings plus dip edits and bad traces per gather (core/recipe/recipe.ts). */
+  recipe(): Recipe {
+    const snap = this.gather ? this.#snapshot() : this.#saved;
+    const gathers: Record<string, RecipeGather> = {};
+    for (const [k, v] of Object.entries(snap?.gathers ?? {})) {
+      const edits = DIP_EDIT_MODEL.validate(v.edits) ?? [];
+      if (!edits.length && !v.bad.length) continue;
+      gathers[k] = { ...(edits.length ? { edits: edits as DipEdit[] } : {}), ...(v.bad.length ? { badTraces: [...v.bad] } : {}) };
+    }
+    const s = this.fill.settings;
+    const o = this.dips.options;
+    return makeRecipe({
+      ...(this.file ? { gatherKey: this.file.key } : {}),
+      ...(this.spacingM ? { spacingM: this.spacingM } : {}),
+      fill: { solver: s.solver, lsq: { maxIterations: s.maxIterations, tolerance: s.tolerance }, net: { steps: s.steps, seed: s.seed }, holdout: s.holdout, secondPass: s.secondPass },
+      slopes: { method: o.method, radiusTimeSamples: o.radiusTimeSamples, radiusTraces: o.radiusTraces, order: o.order },
+      gathers,
+    });
   }
 
-  async loadRecipe(_file: Blob): Promise<void> {
-    this.notify({ kind: 'info', text: 'Recipes: pending.' });
+  async saveRecipe(): Promise<void> {
+    const text = JSON.stringify(this.recipe(), null, 2);
+    await this.saveFile(`${this.#baseName()}.recipe.json`, 'recipe', new Blob([text], { type: 'application/json' }));
+  }
+
+  /** Reads a recipe (strictly: a bad one is refused with its coded problem) and applies it to the open file. */
+  async loadRecipe(file: Blob & { name?: string }): Promise<void> {
+    try {
+      const r = parseRecipe(await file.text(), file.name);
+      const s = r.fill ?? {};
+      this.fill.settings = {
+        ...this.fill.settings,
+        ...(s.solver ? { solver: s.solver } : {}),
+        ...(s.lsq?.maxIterations !== undefined ? { maxIterations: s.lsq.maxIterations } : {}),
+        ...(s.lsq?.tolerance !== undefined ? { tolerance: s.lsq.tolerance } : {}),
+        ...(s.net?.steps !== undefined ? { steps: s.net.steps } : {}),
+        ...(s.net?.seed !== undefined ? { seed: s.net.seed } : {}),
+        ...(s.holdout !== undefined ? { holdout: s.holdout } : {}),
+        ...(s.secondPass !== undefined ? { secondPass: s.secondPass } : {}),
+      };
+      const o = r.slopes ?? {};
+      this.dips.options = {
+        method: o.method ?? this.dips.options.method,
+        radiusTimeSamples: o.radiusTimeSamples ?? this.dips.options.radiusTimeSamples,
+        radiusTraces: o.radiusTraces ?? this.dips.options.radiusTraces,
+        order: o.order ?? this.dips.options.order,
+      };
+      if (!this.file) return;
+      // Edits and bad traces per gather replace what was there; the next autosave keeps them.
+      const gathers: SavedWork['gathers'] = {};
+      for (const g of this.file.gathers) {
+        const edits = editsForGather(r, g.keyValue);
+        const bad = badTracesForGather(r, g.keyValue);
+        if (edits.length || bad.length) gathers[String(g.keyValue)] = { edits, bad };
+      }
+      this.#saved = {
+        version: 1, fileName: this.file.name, sizeBytes: this.file.sizeBytes, gatherKey: r.gatherKey ?? this.file.key,
+        savedAtIso: new Date().toISOString(), gathers, settings: this.#settings(),
+      };
+      if (r.spacingM !== undefined) this.spacingM = r.spacingM;
+      if (r.gatherKey && r.gatherKey !== this.file.key) await this.regroup(r.gatherKey);
+      else await this.loadGather(this.gatherIndex);
+      const n = Object.keys(gathers).length;
+      this.notify({ kind: 'info', text: `Recipe loaded: settings${n ? `, and edits or marked traces for ${n} gather${n === 1 ? '' : 's'}` : ''}.` });
+      this.touched();
+    } catch (e) {
+      this.report(e, 'Reading the recipe');
+    }
   }
 }
