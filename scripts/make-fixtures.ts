@@ -8,7 +8,7 @@ import { encodeText } from '../core/segy/text';
 
 const dir = new URL('../test/fixtures/segy/', import.meta.url).pathname;
 
-type Fmt = 1 | 3 | 5;
+type Fmt = 1 | 3 | 5 | 8;
 interface TraceSpec {
   record: number;
   channel: number;
@@ -32,7 +32,7 @@ interface FileSpec {
   traces: TraceSpec[];
 }
 
-const BPS: Record<Fmt, number> = { 1: 4, 3: 2, 5: 4 };
+const BPS: Record<Fmt, number> = { 1: 4, 3: 2, 5: 4, 8: 1 };
 
 function textHeader(lines: string[], enc: 'ebcdic' | 'ascii'): Uint8Array {
   const out = new Uint8Array(3200);
@@ -99,6 +99,7 @@ function build(spec: FileSpec): Uint8Array {
       const x = t.values[s];
       if (spec.format === 5) v.setFloat32(p, x, little);
       else if (spec.format === 3) v.setInt16(p, x, little);
+      else if (spec.format === 8) v.setInt8(p, x);
       else v.setUint32(p, float64ToIbmBits(x), little);
     }
   });
@@ -133,6 +134,7 @@ const files: Record<string, Uint8Array> = {
   'good-le-guess.sgy': build({ ...good, little: true }),
   'good-ibm.sgy': build({ ...good, format: 1 }),
   'good-int16.sgy': build({ ...good, format: 3 }),
+  'good-int8.sgy': build({ ...good, format: 8 }),
   'ascii-ext.sgy': build({ ...good, text: 'ascii', extendedText: ['((Harrowmere: survey notes)) Invented extended textual header for tests.'] }),
   'rev0.sgy': build({ ...good, revision: 0 }),
   'two-gathers.sgy': build({

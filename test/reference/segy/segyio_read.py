@@ -9,7 +9,7 @@ import numpy as np
 import segyio
 
 path, endian = sys.argv[1], sys.argv[2]
-with segyio.open(path, ignore_geometry=True, endian=endian) as f:
+with segyio.open(path, ignore_geometry=True, endian=endian, strict=False) as f:
     out = {
         'tracecount': f.tracecount,
         'samples_per_trace': len(f.samples),

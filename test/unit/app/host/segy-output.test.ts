@@ -87,3 +87,45 @@ describe('file byte source', () => {
     expect(await code(openFileByteSource(dir))).toBe('input.file-not-found');
   });
 });
+
+describe('large files', () => {
+  it('opens a 10 GB file (sparse, on disk) and reads its last trace without loading it', async () => {
+    const { openSync, ftruncateSync, writeSync, closeSync, statSync } = await import('node:fs');
+    const path = join(dir, 'ten-gb.sgy');
+    const nSamples = 1000;
+    const traceBytes = 240 + 4 * nSamples;
+    const nTraces = Math.ceil(10.1e9 / traceBytes);
+    const size = 3600 + nTraces * traceBytes;
+    const head = new Uint8Array(3600);
+    const hv = new DataView(head.buffer);
+    head.fill(0x40, 0, 3200);
+    hv.setInt16(3216, 4000);
+    hv.setUint16(3220, nSamples);
+    hv.setInt16(3224, 5);
+    const last = new Uint8Array(traceBytes);
+    const lv = new DataView(last.buffer);
+    lv.setInt32(8, 77);
+    for (let s = 0; s < nSamples; s++) lv.setFloat32(240 + 4 * s, s - 0.5);
+    const fd = openSync(path, 'w');
+    try {
+      writeSync(fd, head, 0, 3600, 0);
+      ftruncateSync(fd, size);
+      writeSync(fd, last, 0, traceBytes, size - traceBytes);
+    } finally {
+      closeSync(fd);
+    }
+    expect(statSync(path).size).toBeGreaterThan(10e9);
+    const src = await openFileByteSource(path);
+    try {
+      const { readTraces } = await import('../../../../core/segy/gathers');
+      const f = await openSegy(src);
+      expect(f.traceCount).toBe(nTraces);
+      const g = await readTraces(f, 77, Int32Array.of(nTraces - 1));
+      expect(g.headers[0].fields.FIELD_RECORD).toBe(77);
+      expect(g.data[999]).toBe(998.5);
+    } finally {
+      await src.close();
+      rmSync(path, { force: true });
+    }
+  });
+});

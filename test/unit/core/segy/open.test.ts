@@ -27,6 +27,7 @@ describe('openSegy on the fixtures', () => {
     ['good-le-guess.sgy', 'little', 'guessed', 1, 5, 'ebcdic'],
     ['good-ibm.sgy', 'big', 'standard', 1, 1, 'ebcdic'],
     ['good-int16.sgy', 'big', 'standard', 1, 3, 'ebcdic'],
+    ['good-int8.sgy', 'big', 'standard', 1, 8, 'ebcdic'],
     ['ascii-ext.sgy', 'big', 'standard', 1, 5, 'ascii'],
     ['rev0.sgy', 'big', 'standard', 0, 5, 'ebcdic'],
   ] as const)('%s reads with the right layout and exact samples', async (name, order, orderSource, revision, format, text) => {
@@ -87,6 +88,19 @@ describe('openSegy on the fixtures', () => {
     await expectProblem(openSegy(memoryByteSource('cut', b)), 'segy.trace-size-mismatch');
     const lenient = await openSegy(memoryByteSource('cut', b), { strict: false });
     expect(lenient.traceCount).toBe(11);
+  });
+
+  it('refuses absurd or absent sample intervals', async () => {
+    for (const [binDt, traceDt, code] of [[-5, 2000, 'segy.sample-interval'], [0, 0, 'segy.sample-interval'], [20000, -3, 'segy.sample-interval']] as const) {
+      const b = fixtureBytes('good.sgy');
+      const v = new DataView(b.buffer);
+      v.setInt16(3216, binDt, false);
+      for (let p = 3600; p < b.length; p += 440) v.setInt16(p + 116, traceDt, false);
+      await expectProblem(openSegy(memoryByteSource('dt', b)), code);
+    }
+    const b = fixtureBytes('good.sgy');
+    new DataView(b.buffer).setInt16(3216, 0, false); // binary header silent: the trace headers' interval is used
+    expect((await openSegy(memoryByteSource('dt', b))).sampleIntervalUs).toBe(2000);
   });
 
   it('honours a forced byte order, and refuses one that makes the header absurd', async () => {
