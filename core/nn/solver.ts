@@ -5,6 +5,7 @@
  * and blends the fills in. Known traces are copied unchanged.
  */
 import type { GapSolverFn, GapSolverInput, GapSolverResult, SolverProgress } from '../fill/solver';
+import { solveLeastSquares } from '../fill/lsq';
 import { CancelledError, InputFileError, type CancelToken } from '../problems';
 import { trainNetWindow, type NetTrainOptions } from './train';
 import { blendNetWindows, planNetWindows, type NetWindowFill, type NetWindowJob } from './window';
@@ -16,6 +17,8 @@ export interface NetSolverOptions extends Partial<NetTrainOptions> {
   /** Time-window length and overlap (samples) for long traces. */
   windowSamples?: number;
   overlapSamples?: number;
+  /** Start from the least-squares fill (core/fill/lsq.ts) as a fading prior on the missing traces, or not. */
+  start?: 'lsq' | 'none';
   /** Total wall-clock budget for the whole fill (seconds), shared evenly between jobs. */
   timeBudgetSeconds?: number;
 }
@@ -31,6 +34,8 @@ export const NET_DEFAULTS: Required<Omit<NetSolverOptions, 'timeBudgetSeconds'>>
   learningRate: 3e-3,
   learningRateFinalFraction: 0.1,
   warmupSteps: 50,
+  priorWeight: 1,
+  start: 'none',
   batchData: 384,
   batchColloc: 384,
   timeBudgetSeconds: Infinity,
@@ -84,6 +89,8 @@ export function resolveNetOptions(options: NetSolverOptions = {}): typeof NET_DE
   if (!(o.timeBudgetSeconds > 0)) bad('timeBudgetSeconds', o.timeBudgetSeconds, 'a positive number of seconds');
   if (o.activation !== 'sin' && o.activation !== 'tanh') bad('activation', o.activation, "'sin' or 'tanh'");
   if (o.features !== 'dip' && o.features !== 'isotropic') bad('features', o.features, "'dip' or 'isotropic'");
+  if (o.start !== 'lsq' && o.start !== 'none') bad('start', o.start, "'lsq' or 'none'");
+  if (!(o.priorWeight >= 0 && Number.isFinite(o.priorWeight))) bad('priorWeight', o.priorWeight, 'a number ≥ 0');
   if (!Number.isInteger(o.seed)) bad('seed', o.seed, 'an integer');
   return o;
 }
@@ -139,7 +146,8 @@ export async function solveGapsNet(input: GapSolverInput, options: NetSolverOpti
   const o = resolveNetOptions(options);
   const { data, nTraces, nSamples, unknownTraces, slopePairs } = input;
   const out = Float64Array.from(data);
-  const jobs = planNetWindows(data, nTraces, nSamples, unknownTraces, slopePairs, o);
+  const prior = o.start === 'lsq' ? solveLeastSquares({ data, nTraces, nSamples, unknownTraces, slopePairs, cancel: input.cancel }).data : null;
+  const jobs = planNetWindows(data, nTraces, nSamples, unknownTraces, slopePairs, o, prior);
   const waves = Math.max(1, Math.ceil(jobs.length / Math.max(1, jobsInParallel)));
   const train: NetTrainOptions = { ...o, timeBudgetSeconds: o.timeBudgetSeconds / waves };
   const stepsDone = new Float64Array(jobs.length);

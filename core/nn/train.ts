@@ -34,6 +34,11 @@ export interface NetTrainOptions {
   warmupSteps: number;
   batchData: number;
   batchColloc: number;
+  /**
+   * Weight of the prior fill (job.prior, e.g. the least-squares fill) as extra data on the missing traces,
+   * relative to a live sample; it decays linearly to zero over the run (0 = no prior).
+   */
+  priorWeight: number;
   /** Wall-clock seconds this job may use (Infinity for none); training stops early, the fill is still produced. */
   timeBudgetSeconds: number;
 }
@@ -132,8 +137,13 @@ export async function trainNetWindow(job: NetWindowJob, o: NetTrainOptions, hook
   }
   const nData = Math.min(o.batchData, nLiveSamples);
   const nColloc = o.batchColloc;
-  const batch = allocNetBatch(nData, nColloc);
-  batch.nData = nData;
+  const prior = job.prior && o.priorWeight > 0 ? job.prior : null;
+  const nPriorSamples = prior ? nFill * nSamples : 0;
+  const nPrior = prior ? Math.min(nPriorSamples, Math.max(1, nData >> 1)) : 0;
+  const batch = allocNetBatch(nData + nPrior, nColloc, true);
+  batch.nData = nData + nPrior;
+  batch.dataWeight!.fill(1);
+  const sumsPrior = new Float64Array(2);
   batch.nColloc = nColloc;
   const slopeScale = (nTraces - 1) / (nSamples - 1);
   const nPairs = nTraces - 1;
@@ -169,6 +179,18 @@ export async function trainNetWindow(job: NetWindowJob, o: NetTrainOptions, hook
         batch.dataTarget[i] = liveD[j];
       }
     }
+    if (prior) {
+      const mu = o.priorWeight * (1 - step / Math.max(1, o.steps));
+      for (let i = nData; i < nData + nPrior; i++) {
+        const j = rng.int(0, nPriorSamples);
+        const x = job.fillStart + Math.floor(j / nSamples);
+        const t = j % nSamples;
+        batch.dataT[i] = t * sT - 1;
+        batch.dataX[i] = x * sX - 1;
+        batch.dataTarget[i] = prior[j] / rms;
+        batch.dataWeight![i] = mu;
+      }
+    }
     const warm = step < o.warmupSteps;
     const nC = warm ? 0 : nColloc;
     for (let i = 0; i < nC; i++) {
@@ -182,6 +204,7 @@ export async function trainNetWindow(job: NetWindowJob, o: NetTrainOptions, hook
     gData.fill(0);
     gPde.fill(0);
     netBatchGradient(sums, gData, gPde, model, params, batch, 0, nData, 0, nC, scratch);
+    if (nPrior) netBatchGradient(sumsPrior, gData, gPde, model, params, batch, nData, nData + nPrior, 0, 0, scratch);
     dataMse = sums[0] / nData;
     if (nC > 0) pdeMse = sums[1] / nC;
     let nd = 0;

@@ -24,6 +24,8 @@ export interface NetWindowJob {
   fillStart: number;
   fillEnd: number;
   seed: number;
+  /** Optional prior fill of traces [fillStart, fillEnd) (e.g. least squares), same layout as NetWindowFill.fill. */
+  prior?: Float64Array;
 }
 
 export interface NetWindowFill {
@@ -71,6 +73,7 @@ export interface WindowPlanOptions {
 /** Cuts the gather into training jobs. Allocates the job copies. */
 export function planNetWindows(
   data: Float64Array, nTraces: number, nSamples: number, unknownTraces: Uint8Array, slopePairs: Float64Array, o: WindowPlanOptions,
+  prior: Float64Array | null = null,
 ): NetWindowJob[] {
   const jobs: NetWindowJob[] = [];
   const wS = Math.min(nSamples, o.windowSamples);
@@ -88,11 +91,17 @@ export function planNetWindows(
         if (known[x]) jd.set(data.subarray((x0 + x) * nSamples + s0, (x0 + x) * nSamples + s0 + wS), x * wS);
         if (x < nT - 1) sp.set(slopePairs.subarray((x0 + x) * nSamples + s0, (x0 + x) * nSamples + s0 + wS), x * wS);
       }
+      let pj: Float64Array | undefined;
+      if (prior) {
+        pj = new Float64Array((g1 - g0) * wS);
+        for (let x = g0; x < g1; x++) pj.set(prior.subarray(x * nSamples + s0, x * nSamples + s0 + wS), (x - g0) * wS);
+      }
       const index = jobs.length;
       jobs.push({
         index, traceStart: x0, sampleStart: s0, nTraces: nT, nSamples: wS, data: jd, known, slopePairs: sp,
         fillStart: g0 - x0, fillEnd: g1 - x0,
         // Each job has its own seed, so results do not depend on how jobs are spread over workers.
+        prior: pj,
         seed: (Math.imul(o.seed ^ 0x9e3779b9, 2654435761) + Math.imul(index + 1, 0x85ebca6b)) >>> 0,
       });
     }
