@@ -95,6 +95,23 @@ export interface GatherReport {
   problem?: FileProblem;
 }
 
+/** Totals over gather reports (also used when shards are stitched together). */
+export function summarise(reports: readonly GatherReport[]) {
+  const scores = reports.map((r) => r.holdoutSnrDb).filter((v): v is number => v !== null).sort((a, b) => a - b);
+  return {
+    gathers: reports.length,
+    filledTraces: reports.reduce((s, r) => s + (r.problem ? 0 : r.missingCount), 0),
+    gathersNotFilled: reports.filter((r) => r.problem).length,
+    worstHoldoutSnrDb: scores.length ? scores[0] : null,
+    medianHoldoutSnrDb: scores.length ? scores[Math.floor(scores.length / 2)] : null,
+  };
+}
+
+/** Where `dipweave fill` writes the report when --report is not given. */
+export function defaultReportPath(outPath: string): string {
+  return outPath.replace(/\.(sgy|segy)$/i, '') + '.report.json';
+}
+
 const finiteOrNull = (v: number): number | null => (Number.isFinite(v) ? v : null);
 
 /** Fill settings: defaults, then the recipe, then command-line options. */
@@ -181,7 +198,7 @@ async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
   if (typeof o.out !== 'string' || o.out === '') throw badArg('`dipweave fill` needs --out OUT.sgy.', undefined, 'The input file is never written over.');
   const inPath = resolve(ctx.cwd, args.positionals[0]);
   const outPath = resolve(ctx.cwd, o.out);
-  const reportPath = resolve(ctx.cwd, typeof o.report === 'string' ? o.report : outPath.replace(/\.(sgy|segy)$/i, '') + '.report.json');
+  const reportPath = resolve(ctx.cwd, typeof o.report === 'string' ? o.report : defaultReportPath(outPath));
   let recipe: Recipe | undefined;
   if (typeof o.recipe === 'string') {
     const rp = resolve(ctx.cwd, o.recipe);
@@ -265,7 +282,8 @@ async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
       }
     };
     let done = 0;
-    await writeFilledSegy(outPath, inPath, file, { method: methodText(settings, !!dips) }, async (sink) => {
+    const method = methodText(settings, !!dips);
+    await writeFilledSegy(outPath, inPath, file, { method }, async (sink) => {
       for (let i = first; i < end; i++) {
         submit();
         throwIfCancelled(ctx.cancel);
@@ -300,7 +318,6 @@ async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
       }
     }, ctx.cancel);
 
-    const scores = reports.map((r) => r.holdoutSnrDb).filter((v): v is number => v !== null).sort((a, b) => a - b);
     const report = {
       format: 'dipweave-fill-report',
       version: 1,
@@ -308,17 +325,12 @@ async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
       input: inPath,
       output: outPath,
       gatherKey: key.label,
+      method,
       shard: { index: shard.index, count: shard.count, firstGather: first, endGather: end, totalGathers: index.gathers.length },
       settings: { ...settings, factor: factor ?? null, spacingM: spacingM ?? null, dips: typeof o.dips === 'string' ? resolve(ctx.cwd, o.dips) : null, recipe: typeof o.recipe === 'string' ? resolve(ctx.cwd, o.recipe) : null },
       jobs,
       seconds: (Date.now() - started) / 1000,
-      summary: {
-        gathers: reports.length,
-        filledTraces: reports.reduce((s, r) => s + (r.problem ? 0 : r.missingCount), 0),
-        gathersNotFilled: failures.length,
-        worstHoldoutSnrDb: scores.length ? scores[0] : null,
-        medianHoldoutSnrDb: scores.length ? scores[Math.floor(scores.length / 2)] : null,
-      },
+      summary: summarise(reports),
       gathers: reports,
     };
     await writeFileAtomically(reportPath, [inPath, outPath], async (sink) => {
