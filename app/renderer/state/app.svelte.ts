@@ -66,8 +66,10 @@ export class AppState {
     this.autosaver = new Autosaver(store);
   }
 
+  /** Shows a message; information fades after 10 s, warnings and errors stay until dismissed. */
   notify(n: Notice): void {
     this.notices = [...this.notices.slice(-4), n];
+    if (n.kind === 'info') setTimeout(() => { this.notices = this.notices.filter((x) => x !== n); }, 10_000);
   }
 
   dismiss(i: number): void {
@@ -333,7 +335,7 @@ export class AppState {
   async saveFile(name: string, kind: SaveKind, data: Blob | Uint8Array): Promise<boolean> {
     try {
       const r = await saveBytes(name, kind, data);
-      if (r.saved) this.notify({ kind: 'info', text: `Saved ${r.name} (${(r.sizeBytes / 1024).toFixed(0)} KiB).` });
+      if (r.saved) this.notify({ kind: 'info', text: `Saved ${r.name} (${r.sizeBytes < 10_240 ? `${r.sizeBytes} bytes` : `${(r.sizeBytes / 1024).toFixed(0)} KiB`}).` });
       return r.saved;
     } catch (e) {
       this.report(e, `Saving ${name}`);

@@ -1,0 +1,148 @@
+// Files in and out of the UI in Debian's Chromium: drag-and-drop of a SEG-Y written by Debian's python3-segyio
+// (an outside writer), bad files (the coded problem is shown and nothing crashes), a recipe saved and loaded
+// back, and a cancelled long fill (the UI stays usable).
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { PreviewServer } from 'vite';
+import type { Page } from 'playwright-core';
+import { haveChromium, openBrowser, RESULTS, ROOT, shot, startServer, type Session } from './harness';
+
+const PY = '/usr/bin/python3';
+const havePy = spawnSync(PY, ['-c', 'import segyio'], { encoding: 'utf8' }).status === 0;
+if (!havePy) {
+  const msg = `SKIPPING the drag-and-drop test: ${PY} with segyio is missing. Install Debian's python3-segyio.`;
+  if (process.env.CI === 'true') throw new Error(msg);
+  console.warn(`\n*** ${msg}\n`);
+}
+
+let server: PreviewServer;
+let url = '';
+let s: Omit<Session, 'server' | 'url'>;
+const dir = mkdtempSync(join(tmpdir(), 'dipweave-e2e-files-'));
+
+beforeAll(async () => {
+  if (!haveChromium) return;
+  ({ server, url } = await startServer());
+  s = await openBrowser(url);
+  await s.page.waitForSelector('[data-testid=gather-label]', { timeout: 30_000 });
+});
+afterAll(async () => {
+  await s?.close();
+  await server?.close();
+  rmSync(dir, { recursive: true, force: true });
+});
+
+/** Drops a file on the window as a browser does: a DataTransfer holding a File. */
+async function dropFile(page: Page, name: string, bytes: Buffer): Promise<void> {
+  const dt = await page.evaluateHandle(({ name, b64 }) => {
+    const bin = atob(b64);
+    const arr = new Uint8Array(bin.length);
+    for (let i = 0; i < bin.length; i++) arr[i] = bin.charCodeAt(i);
+    const d = new DataTransfer();
+    d.items.add(new File([arr], name, { type: 'application/octet-stream' }));
+    return d;
+  }, { name, b64: bytes.toString('base64') });
+  await page.dispatchEvent('[data-testid=section]', 'dragover', { dataTransfer: dt });
+  await page.dispatchEvent('[data-testid=section]', 'drop', { dataTransfer: dt });
+}
+
+async function lastError(page: Page): Promise<{ code: string; text: string }> {
+  const n = page.locator('[data-testid=notice-error]').last();
+  await n.waitFor({ timeout: 20_000 });
+  return { code: (await n.getAttribute('data-code')) ?? '', text: (await n.textContent()) ?? '' };
+}
+
+describe.skipIf(!haveChromium)('files in and out', () => {
+  it.skipIf(!havePy)('opens a SEG-Y dropped on the window (written by segyio)', async () => {
+    const path = join(dir, 'dropped.sgy');
+    const r = spawnSync(PY, [join(import.meta.dirname, 'make_segy.py'), path], { encoding: 'utf8' });
+    expect(r.status, r.stderr).toBe(0);
+    await dropFile(s.page, 'dropped.sgy', readFileSync(path));
+    await expect.poll(() => s.page.textContent('[data-testid=file-name]'), { timeout: 20_000 }).toBe('dropped.sgy');
+    // Shot 1 of the file: 96 channel positions, 12 of them absent (make_segy.py), 12.5 m apart.
+    expect(await s.page.textContent('[data-testid=gather-label]')).toContain('96 positions');
+    expect(await s.page.textContent('[data-testid=legend-missing]')).toContain('12');
+    await shot(s.page, 'e2e-10-dropped');
+    await s.page.click('[data-testid=next-gather]');
+    await expect.poll(() => s.page.textContent('[data-testid=gather-label]')).toContain('2 of 2');
+    expect(await s.page.textContent('[data-testid=legend-missing]')).toContain('0');
+  });
+
+  it('shows the coded problem for bad files and keeps working', async () => {
+    const before = await s.page.textContent('[data-testid=file-name]');
+    // Smaller than the 3600 bytes of the textual and binary headers.
+    await dropFile(s.page, 'tiny.sgy', Buffer.alloc(1000, 0x40));
+    let e = await lastError(s.page);
+    expect(e.code).toBe('segy.file-too-small');
+    expect(e.text).toContain('tiny.sgy');
+    await shot(s.page, 'e2e-11-bad-file');
+    // A demo file cut in the middle of a trace.
+    const demo = readFileSync(join(ROOT, 'samples/grv07-gap.sgy'));
+    await dropFile(s.page, 'cut.sgy', demo.subarray(0, 3600 + 1500 + 777));
+    e = await lastError(s.page);
+    expect(e.code).toMatch(/^segy\./);
+    // The previous file is still on screen and the app still works.
+    expect(await s.page.textContent('[data-testid=file-name]')).toBe(before);
+    await s.page.click('[data-testid=step-look]');
+    await s.page.click('[data-testid=mode-both]');
+    await shot(s.page, 'e2e-12-still-working');
+    expect(s.errors.filter((x) => x.startsWith('pageerror'))).toEqual([]);
+  });
+
+  it('saves a recipe and loads it back; a bad recipe is refused with its code', async () => {
+    const page = s.page;
+    await page.click('[data-testid=step-open]');
+    await page.click('[data-testid=demo-grv07-gap\\.sgy]');
+    await expect.poll(() => page.textContent('[data-testid=file-name]')).toBe('grv07-gap.sgy');
+    await page.click('[data-testid=step-fill]');
+    await page.fill('[data-testid=max-iterations]', '123');
+    await page.click('[data-testid=step-save]');
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid=save-recipe]')]);
+    const path = join(RESULTS, 'e2e-recipe.json');
+    await dl.saveAs(path);
+    const recipe = JSON.parse(readFileSync(path, 'utf8'));
+    expect(recipe.format).toBe('dipweave-recipe');
+    expect(recipe.fill.lsq.maxIterations).toBe(123);
+    // Change the setting, then load the recipe: the saved value comes back.
+    await page.click('[data-testid=step-fill]');
+    await page.fill('[data-testid=max-iterations]', '7');
+    await page.click('[data-testid=step-save]');
+    await page.setInputFiles('[data-testid=recipe-input]', path);
+    await page.click('[data-testid=step-fill]');
+    await expect.poll(() => page.inputValue('[data-testid=max-iterations]')).toBe('123');
+    // A recipe with an unknown field is refused (strict reading) with its code.
+    const badPath = join(dir, 'bad.recipe.json');
+    writeFileSync(badPath, JSON.stringify({ ...recipe, fill: { ...recipe.fill, sovler: 'lsq' } }));
+    await page.click('[data-testid=step-save]');
+    await page.setInputFiles('[data-testid=recipe-input]', badPath);
+    const e = await lastError(page);
+    expect(e.code).toBe('input.bad-recipe');
+  });
+
+  it('cancels a long network fill and stays usable', async () => {
+    const page = s.page;
+    await page.click('[data-testid=step-fill]');
+    await page.check('[data-testid=solver-net]');
+    await page.fill('[data-testid=net-steps]', '200000');
+    await page.click('[data-testid=run-fill]');
+    await page.waitForSelector('[data-testid=fill-progress]', { timeout: 20_000 });
+    // Let the network train a little so the loss curve has points.
+    await expect.poll(() => page.evaluate(() => (window as unknown as { __dipweave: { fill: { loss: unknown[] } } }).__dipweave.fill.loss.length), { timeout: 60_000 }).toBeGreaterThan(3);
+    await shot(page, 'e2e-13-network-running');
+    const t0 = Date.now();
+    await page.click('[data-testid=cancel-fill]');
+    await page.waitForSelector('[data-testid=run-fill]', { timeout: 20_000 });
+    const cancelMs = Date.now() - t0;
+    console.log(`network fill cancelled after ${cancelMs} ms`);
+    expect(await page.locator('[data-testid=notice-info]').last().textContent()).toContain('cancelled');
+    expect(await page.locator('[data-testid=fill-result]').count()).toBe(0);
+    // Still usable: a least-squares fill runs to the end afterwards.
+    await page.check('[data-testid=solver-lsq]');
+    await page.click('[data-testid=run-fill]');
+    await page.waitForSelector('[data-testid=holdout-score]', { timeout: 120_000 });
+    await shot(page, 'e2e-14-after-cancel');
+  });
+});
