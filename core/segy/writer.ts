@@ -117,9 +117,6 @@ export class SegyWriter {
       const view = this.binaryView();
       const count = readFieldAt(view, countField.byte - 3201, countField.kind, this.little);
       if (count >= 0) writeFieldAt(view, countField.byte - 3201, countField.kind, count + 1, this.little);
-      const first = BINARY_HEADER.FIRST_TRACE_OFFSET_BYTES;
-      if (rev >= 2 && file.binary.FIRST_TRACE_OFFSET_BYTES > 0)
-        writeFieldAt(view, first.byte - 3201, first.kind, file.binary.FIRST_TRACE_OFFSET_BYTES + TEXT_HEADER_BYTES, this.little);
     } else {
       this.slot = free.length ? { kind: 'main', cards: free } : { kind: 'none' };
       this.warnings.push({
@@ -131,7 +128,12 @@ export class SegyWriter {
     }
     const view = this.binaryView();
     if (this.outFormat !== file.formatCode) writeFieldAt(view, BINARY_HEADER.SAMPLE_FORMAT_CODE.byte - 3201, 'i16', this.outFormat, this.little);
-    if (rev >= 2) writeFieldAt(view, BINARY_HEADER.TRAILER_STANZA_COUNT.byte - 3201, 'i32', 0, this.little);
+    if (rev >= 2) {
+      // Traces follow the headers directly in the output, and no trailer is written.
+      writeFieldAt(view, BINARY_HEADER.TRAILER_STANZA_COUNT.byte - 3201, 'i32', 0, this.little);
+      if (file.binary.FIRST_TRACE_OFFSET_BYTES > 0)
+        writeFieldAt(view, BINARY_HEADER.FIRST_TRACE_OFFSET_BYTES.byte - 3201, 'u64', 3600 + this.extended.length * TEXT_HEADER_BYTES, this.little);
+    }
     this.writeNote(false);
   }
 

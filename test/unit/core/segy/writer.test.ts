@@ -153,3 +153,24 @@ describe('SegyWriter', () => {
     await expect(writeAll(file, { method: METHOD }, (o) => { o.filled[1] = 1; o.gridData[50] = Number.NaN; })).rejects.toThrow(/non-finite/);
   });
 });
+
+describe('SegyWriter on rev 2 files', () => {
+  it('sets the number of traces and the first-trace offset to the output layout', async () => {
+    const b = fixtureBytes('good-le.sgy');
+    const v = new DataView(b.buffer);
+    // A rev 2 file stating its first-trace offset (3600) and trace count (12), with no free textual card, so
+    // the note goes into a new extended header and both fields must follow the new layout.
+    v.setUint32(3520, 3600, true); // 3521–3528, 8-byte unsigned, little-endian low word first
+    v.setUint32(3512, 12, true);
+    for (let c = 0; c < 40; c++) encodeText(`C${String(c + 1).padStart(2)} FULL ${c}`.padEnd(80), 'ebcdic', b, c * 80);
+    const file = await openSegy(memoryByteSource('rev2', b));
+    const { out } = await writeAll(file, { method: METHOD }, (o) => { o.filled[3] = 1; });
+    const back = await openSegy(memoryByteSource('o', out));
+    expect(back.revision).toBe(2);
+    expect(back.extendedTextHeaders.length).toBe(1);
+    expect(back.binary.FIRST_TRACE_OFFSET_BYTES).toBe(3600 + 3200);
+    expect(back.binary.NUMBER_OF_TRACES).toBe(12);
+    expect(back.firstTraceOffsetBytes).toBe(6800);
+    expect(back.warnings).toEqual([]);
+  });
+});
