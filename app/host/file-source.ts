@@ -38,7 +38,9 @@ export async function openFileByteSource(path: string): Promise<FileByteSource> 
       if (!Number.isInteger(offsetBytes) || !Number.isInteger(lengthBytes) || offsetBytes < 0 || lengthBytes < 0)
         throw new RangeError(`read(${offsetBytes}, ${lengthBytes}): offsets must be non-negative integers`);
       if (offsetBytes + lengthBytes > sizeBytes) throw truncatedError(name, sizeBytes, offsetBytes, lengthBytes);
-      const out = new Uint8Array(lengthBytes);
+      // Unpooled and not zero-filled (every byte is read below); a plain Uint8Array view, so slice() copies.
+      const raw = Buffer.allocUnsafeSlow(lengthBytes);
+      const out = new Uint8Array(raw.buffer, raw.byteOffset, lengthBytes);
       let done = 0;
       while (done < lengthBytes) {
         const { bytesRead } = await handle.read(out, done, lengthBytes - done, offsetBytes + done);
