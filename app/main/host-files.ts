@@ -260,6 +260,9 @@ export class HostFiles {
     }
     const inputs = new Set(this.openPaths());
     let same = inputs.has(canonical) || inputs.has(target);
+    // The bundled demo files are inputs too, open or not.
+    const samples = await realpath(this.opts.samplesDir).catch(() => resolve(this.opts.samplesDir));
+    if (dirname(canonical) === samples) same = true;
     if (!same) {
       // hard links and other aliases: compare device and inode
       try {

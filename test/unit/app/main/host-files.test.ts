@@ -153,6 +153,14 @@ describe('saving', () => {
     expect(new Uint8Array(await readFile(join(dir, 'input.sgy')))).toEqual(payload);
   });
 
+  it('refuses to write into the folder of the bundled demo files, open or not', async () => {
+    nextSave = join(dir, 'samples', 'demo-a.sgy');
+    expect(await codeOf(files.saveDialog('x.sgy', 'segy'))).toBe('input.would-overwrite');
+    nextSave = join(dir, 'samples', 'new.sgy');
+    expect(await codeOf(files.saveDialog('x.sgy', 'segy'))).toBe('input.would-overwrite');
+    expect(new Uint8Array(await readFile(join(dir, 'samples', 'demo-a.sgy')))).toEqual(payload);
+  });
+
   it('re-checks the target at finish (an input opened after the dialog)', async () => {
     nextSave = join(dir, 'input.sgy');
     await files.saveDialog('x.sgy', 'segy');
