@@ -54,7 +54,8 @@ export function sampleAt(u: Float64Array, base: number, nSamples: number, tau: n
   const f = tau - i0;
   if (f === 0) return u[base + i0];
   const pos = f * TABLE_STEPS;
-  const row = Math.floor(pos);
+  // f can round to exactly 1 for τ just below an integer: stay inside the table.
+  const row = Math.min(TABLE_STEPS - 1, Math.floor(pos));
   const g = pos - row;
   const w = 2 * TAPS;
   const r0 = row * w;

@@ -40,8 +40,9 @@ export interface PlanInput {
 }
 
 /**
- * Detects regular decimation: every stretch of absent positions between two recorded traces has the same
- * length k−1 ≥ 1 (at least two such stretches). Returns 1 when the pattern does not hold.
+ * Detects regular decimation: the stretches of absent positions between two recorded traces mostly (≥ 75 %,
+ * at least two) share one length k−1 ≥ 1. Other stretches are then gaps or isolated missing traces. Returns 1
+ * when no such pattern holds.
  */
 export function detectDecimationFactor(present: ArrayLike<number>): number {
   const lengths: number[] = [];
@@ -52,9 +53,12 @@ export function detectDecimationFactor(present: ArrayLike<number>): number {
     last = i;
   }
   if (lengths.length < 2) return 1;
-  const k1 = lengths[0];
-  if (k1 < 1) return 1;
-  return lengths.every((l) => l === k1) ? k1 + 1 : 1;
+  const counts = new Map<number, number>();
+  for (const l of lengths) counts.set(l, (counts.get(l) ?? 0) + 1);
+  let mode = 0;
+  let best = 0;
+  for (const [l, c] of counts) if (c > best || (c === best && l < mode)) [mode, best] = [l, c];
+  return mode >= 1 && best >= 2 && best >= 0.75 * lengths.length ? mode + 1 : 1;
 }
 
 /** Builds the plan from which positions are recorded, dead or marked bad. */

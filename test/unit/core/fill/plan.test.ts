@@ -10,6 +10,9 @@ describe('fill plan', () => {
     expect(detectDecimationFactor(present('#..#.#..#'))).toBe(1);
     expect(detectDecimationFactor(present('#######'))).toBe(1);
     expect(detectDecimationFactor(present('#...#'))).toBe(1); // one stretch is a gap, not a pattern
+    expect(detectDecimationFactor(present('#.#.#.#.#.##'))).toBe(2); // an extra recorded trace at the end
+    expect(detectDecimationFactor(present('#.#.#.#......#.#.#'))).toBe(2); // decimated with a gap
+    expect(detectDecimationFactor(present('#.##.##.##'))).toBe(1); // as many neighbours as holes: no pattern
   });
 
   it('classifies decimation, gaps, isolated missing, dead and bad traces', () => {
