@@ -18,7 +18,9 @@
 import { InputFileError, throwIfCancelled, type CancelToken } from '../problems';
 import type { PwdOrder } from '../pwd/maxflat';
 import { createLowpassWorkspace, lowpassTracesUnchecked } from '../fft/lowpass';
+import { createRealFftPlan, nextPowerOfTwo } from '../fft/real-fft';
 import { balanceAmplitudes } from './balance';
+import { halveTime } from './halve';
 import { coarseGridOf, coarsePairsToFinePairs, detectDecimationFactor, extractCoarse, finePairOfCoarsePair, type CoarseGrid } from './decimation';
 import { applyDipEdits, validateDipEdits, type DipEdit } from './edits';
 import { inpaintGapSlopes } from './gap';
@@ -49,6 +51,38 @@ const MEASURE_MARGIN = 1.2;
 const MAX_TIME_LEVELS = 4;
 const MIN_LEVEL_SAMPLES = 24;
 const TENSOR_CLAMP = 64;
+/** Slopes steeper than this (samples per trace) are not taken as events when planning levels: incoherent traces
+ * look like vertical events to a structure tensor. */
+const MAX_MEASURABLE_SLOPE = 32;
+const BAND_MARGIN = 1.25;
+/** Every estimated |σ| is kept below max(MIN_SLOPE_BOUND, SLOPE_BOUND_FACTOR × steepest measured slope). */
+const MIN_SLOPE_BOUND = 3;
+const SLOPE_BOUND_FACTOR = 2;
+
+/**
+ * Frequency (cycles per sample) below which `fraction` of the energy of the traces lies (power spectra of all
+ * traces summed; fft.js through core/fft).
+ */
+export function energyBandEdge(u: ArrayLike<number>, nTraces: number, nSamples: number, fraction: number): number {
+  const size = nextPowerOfTwo(nSamples);
+  const plan = createRealFftPlan(size);
+  const buf = new Float64Array(size), spec = new Float64Array(2 * size);
+  const power = new Float64Array(size / 2 + 1);
+  for (let x = 0; x < nTraces; x++) {
+    for (let t = 0; t < nSamples; t++) buf[t] = u[x * nSamples + t];
+    plan.impl.realTransform(spec, buf);
+    for (let k = 0; k <= size / 2; k++) power[k] += spec[2 * k] * spec[2 * k] + spec[2 * k + 1] * spec[2 * k + 1];
+  }
+  let total = 0;
+  for (let k = 1; k <= size / 2; k++) total += power[k];
+  if (!(total > 0)) return 0.5;
+  let acc = 0;
+  for (let k = 1; k <= size / 2; k++) {
+    acc += power[k];
+    if (acc >= fraction * total) return k / size;
+  }
+  return 0.5;
+}
 
 function badOption(field: string, found: unknown, expected: string): InputFileError {
   return new InputFileError({ code: 'input.bad-argument', severity: 'error', field, message: `slope option ${field} is out of range.`, found: String(found), expected });
@@ -76,15 +110,11 @@ function resolveOptions(o: SlopeOptions): Resolved {
   return r;
 }
 
-/** Low-pass and take every m-th sample. */
+/** Low-pass and take every m-th sample (m a power of two) by cascaded half-band decimation (halve.ts). */
 function decimateTime(u: Float64Array, nTraces: number, nSamples: number, m: number): { data: Float64Array; nSamples: number } {
-  if (m === 1) return { data: u, nSamples };
-  const ws = createLowpassWorkspace(nSamples, 0.35 / m, 0.5 / m);
-  const lp = lowpassTracesUnchecked(new Float64Array(u.length), u, nTraces, nSamples, ws);
-  const nsOut = Math.ceil(nSamples / m);
-  const out = new Float64Array(nTraces * nsOut);
-  for (let x = 0; x < nTraces; x++) for (let t = 0; t < nsOut; t++) out[x * nsOut + t] = lp[x * nSamples + t * m];
-  return { data: out, nSamples: nsOut };
+  let cur = { data: u, nSamples };
+  for (let f = 1; f < m; f *= 2) cur = halveTime(cur.data, nTraces, cur.nSamples);
+  return cur;
 }
 
 /** Upsample a pair field in time by factor m (values × m: slopes scale with the time step). */
@@ -122,7 +152,7 @@ export function measureSteepestSlope(u: Float64Array, nTraces: number, nSamples:
   for (let i = 0; i < n; i++) meanE += e[i];
   meanE /= Math.max(1, n);
   const vals: number[] = [];
-  for (let i = 0; i < n; i++) if (c[i] > 0.7 && e[i] > 0.1 * meanE && Math.abs(s[i]) < TENSOR_CLAMP) vals.push(Math.abs(s[i]));
+  for (let i = 0; i < n; i++) if (c[i] > 0.7 && e[i] > 0.1 * meanE && Math.abs(s[i]) * m < MAX_MEASURABLE_SLOPE) vals.push(Math.abs(s[i]));
   if (vals.length === 0) return 0;
   vals.sort((a, b) => a - b);
   return vals[Math.min(vals.length - 1, Math.floor(0.9 * vals.length))] * m;
@@ -142,20 +172,20 @@ interface WorkResult {
 }
 
 function estimateOnWorkGrid(
-  u: Float64Array, nTraces: number, nSamples: number, traceLive: Uint8Array, s: Resolved, levels: number,
+  u: Float64Array, nTraces: number, nSamples: number, traceLive: Uint8Array, s: Resolved, levels: number, slopeBound: number,
   observations: SlopeObservations | undefined, cancel: CancelToken | undefined,
 ): WorkResult {
   const pairLive = pairLiveOf(traceLive);
   const nPairs = nTraces - 1;
   const pyramid: { data: Float64Array; nSamples: number }[] = [{ data: u, nSamples }];
-  for (let l = 1; l <= levels; l++) pyramid.push(decimateTime(u, nTraces, nSamples, 2 ** l));
+  for (let l = 1; l <= levels; l++) pyramid.push(halveTime(pyramid[l - 1].data, nTraces, pyramid[l - 1].nSamples));
   const top = pyramid[levels];
   const mTop = 2 ** levels;
   const rtTop = Math.max(2, Math.round(s.radiusTimeSamples / mTop));
   const tws = createTensorWorkspace(nTraces, top.nSamples, rtTop, s.radiusTraces);
   let prior: Float64Array = new Float64Array(nPairs * top.nSamples);
   let coh: Float64Array = new Float64Array(nPairs * top.nSamples);
-  structureTensorSlopesUnchecked(tws, prior, coh, top.data, pairLive, TENSOR_CLAMP);
+  structureTensorSlopesUnchecked(tws, prior, coh, top.data, pairLive, slopeBound / mTop);
   throwIfCancelled(cancel);
   if (s.method === 'tensor') {
     const sigma = levels > 0 ? upsampleSlopes(prior, nPairs, top.nSamples, nSamples, mTop, mTop) : prior;
@@ -194,6 +224,9 @@ function estimateOnWorkGrid(
     }
     const ws = createGaussNewtonWorkspace(nTraces, lev.nSamples, rt, s.radiusTraces);
     const rep = gaussNewtonSlopes(ws, sigma, lev.data, pairLive, prior, shift, { ...s, radiusTimeSamples: rt }, l === 0 ? observations : undefined, cancel);
+    // Incoherent zones may wander: keep every slope within the planned bound.
+    const b = slopeBound / m;
+    for (let i = 0; i < sigma.length; i++) sigma[i] = sigma[i] > b ? b : sigma[i] < -b ? -b : sigma[i];
     if (l === 0) {
       residualStart = rep.residualStart;
       residualEnd = rep.residualEnd;
@@ -273,25 +306,34 @@ export function estimateSlopes(
       hint: k === 1 ? 'If live traces are every k-th position, give the decimation factor.' : 'Check the live-trace mask.',
     });
   throwIfCancelled(cancel);
+  const lpOpt = options.lowpassCyclesPerSample ?? 'auto';
+  if (typeof lpOpt === 'number' && !(lpOpt > 0 && lpOpt <= 0.5)) throw badOption('lowpassCyclesPerSample', lpOpt, 'in (0, 0.5], auto or off');
+  // Band limit: incoherent noise above the signal band carries little energy but, weighted by the time
+  // derivative in g, would steer the estimate; cut above BAND_MARGIN × the frequency holding 99 % of the energy.
+  let cutoff = typeof lpOpt === 'number' ? lpOpt : lpOpt === 'auto' ? Math.min(0.5, BAND_MARGIN * energyBandEdge(work, nWork, nSamples, 0.99)) : 0.5;
+  const lowpass = (c: number) => {
+    const ws = createLowpassWorkspace(nSamples, 0.8 * c, c);
+    work = lowpassTracesUnchecked(work === data ? new Float64Array(work.length) : work, work, nWork, nSamples, ws);
+  };
+  if (cutoff < 0.45) lowpass(cutoff);
+  else cutoff = 0.5;
   if (options.balance ?? true) work = balanceAmplitudes(work, nWork, nSamples, Math.max(16, 3 * s.radiusTimeSamples), 1);
 
   const maxOpt = options.maxSlopeSamplesPerTrace ?? 'auto';
   if (maxOpt !== 'auto' && !(maxOpt >= 0)) throw badOption('maxSlopeSamplesPerTrace', maxOpt, '≥ 0 or auto');
   const maxSlope = maxOpt === 'auto' ? measureSteepestSlope(work, nWork, nSamples, pairLive, s.radiusTimeSamples, s.radiusTraces) : maxOpt;
-
-  let cutoff = 0.5;
-  const lpOpt = options.lowpassCyclesPerSample ?? 'auto';
-  if (typeof lpOpt === 'number') {
-    if (!(lpOpt > 0 && lpOpt <= 0.5)) throw badOption('lowpassCyclesPerSample', lpOpt, 'in (0, 0.5]');
-    cutoff = lpOpt;
-  } else if (lpOpt === 'auto' && grid && maxSlope > 0) cutoff = Math.min(0.5, 0.9 / (2 * maxSlope));
-  if (cutoff < 0.5) {
-    const ws = createLowpassWorkspace(nSamples, 0.8 * cutoff, cutoff);
-    work = lowpassTracesUnchecked(work === data ? new Float64Array(work.length) : work, work, nWork, nSamples, ws);
+  // Decimated data: also below the alias frequency 1/(2|σ_c,max|) of the steepest coarse-grid slope (methods.md §2.6).
+  if (lpOpt === 'auto' && grid && maxSlope > 0) {
+    const alias = 0.9 / (2 * maxSlope);
+    if (alias < cutoff) {
+      cutoff = alias;
+      lowpass(cutoff);
+    }
   }
   throwIfCancelled(cancel);
 
   const levels = levelsFor(maxSlope, s.order, nSamples);
+  const slopeBound = Math.max(MIN_SLOPE_BOUND, SLOPE_BOUND_FACTOR * maxSlope);
   const nFinePairs = (nTraces - 1) * nSamples;
   let observations: SlopeObservations | undefined;
   let editRasterValue: Float64Array | null = null;
@@ -301,13 +343,13 @@ export function estimateSlopes(
     editRasterValue = new Float64Array(nFinePairs);
     editRasterWeight = new Float64Array(nFinePairs);
   }
-  let res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, undefined, cancel);
+  let res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, undefined, cancel);
   if (editRasterValue && editRasterWeight) {
     const fine = grid ? coarsePairsToFinePairs(new Float64Array(nFinePairs), res.sigma, grid, nTraces, nSamples, 1 / k) : res.sigma.slice();
     applyDipEdits(fine, editRasterWeight, nTraces, nSamples, edits);
     editRasterValue.set(fine);
     observations = observationsOnWorkGrid(editRasterValue, editRasterWeight, grid, nTraces, nWork, nSamples);
-    res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, observations, cancel);
+    res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, observations, cancel);
   }
   const inpaintedWork = inpaintGapSlopes(res.sigma, res.conf, workLive, nWork, nSamples);
 
