@@ -3,6 +3,5 @@ import type { CliCommand } from '../context';
 import { inspectCommand } from './inspect';
 import { fillCommand } from './fill';
 import { dipsCommand } from './dips';
-import { stitchCommand } from './stitch';
 
-export const COMMANDS: CliCommand[] = [inspectCommand, fillCommand, stitchCommand, dipsCommand];
+export const COMMANDS: CliCommand[] = [inspectCommand, fillCommand, dipsCommand];
