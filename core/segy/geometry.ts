@@ -3,14 +3,13 @@
  * regular grid, and which grid positions are missing (no trace) or dead (trace ID code 2, or all samples 0).
  *
  * Positions come from whichever header values vary within the gather: receiver coordinates (shot gather),
- * source coordinates (receiver gather), the offset (CMP gather, where both vary), the ensemble (CDP)
- * coordinates (stacked sections that carry only those), else trace order with a spacing the user gives
- * (files without geometry, such as WL1.sgy). Layout of `data`: core/grid/gather.ts.
+ * source coordinates (receiver gather), the offset (CMP gather, where both vary), else trace order with a
+ * spacing the user gives (files without geometry, such as WL1.sgy). Layout of `data`: core/grid/gather.ts.
  */
 import { InputFileError, type FileProblem } from '../problems';
 import type { TraceHeader } from './trace-header';
 
-export type PositionSource = 'receiver' | 'source' | 'offset' | 'ensemble' | 'trace-order';
+export type PositionSource = 'receiver' | 'source' | 'offset' | 'trace-order';
 
 export interface GeometryOptions {
   /** Grid spacing in metres. Required for a spacing where headers carry none; overrides the estimate otherwise. */
@@ -140,16 +139,14 @@ export function gatherGeometry(headers: readonly TraceHeader[], data: Float32Arr
 
   // Which header values vary within the gather?
   const sx = new Float64Array(nTraces), sy = new Float64Array(nTraces), rx = new Float64Array(nTraces), ry = new Float64Array(nTraces);
-  const off = new Float64Array(nTraces), ex = new Float64Array(nTraces), ey = new Float64Array(nTraces);
+  const off = new Float64Array(nTraces);
   for (let i = 0; i < nTraces; i++) {
     const h = headers[i];
     sx[i] = h.sourceX; sy[i] = h.sourceY; rx[i] = h.receiverX; ry[i] = h.receiverY; off[i] = h.offsetM;
-    ex[i] = h.ensembleX; ey[i] = h.ensembleY;
   }
   const unit = nTraces ? headers[0].coordinateUnit : 'length';
   toLocalMetres(sx, sy, unit);
   toLocalMetres(rx, ry, unit);
-  toLocalMetres(ex, ey, unit);
   const varies = (a: Float64Array, b?: Float64Array) => range(a) > 1e-3 || (b !== undefined && range(b) > 1e-3);
   const rv = nTraces > 1 && varies(rx, ry);
   const sv = nTraces > 1 && varies(sx, sy);
@@ -160,7 +157,6 @@ export function gatherGeometry(headers: readonly TraceHeader[], data: Float32Arr
   else if (sv && !rv) { positionSource = 'source'; positionsM = alongLine(sx, sy); }
   else if (rv && sv && !ov) { positionSource = 'receiver'; positionsM = alongLine(rx, ry); }
   else if (ov) { positionSource = 'offset'; positionsM = off; }
-  else if (nTraces > 1 && varies(ex, ey)) { positionSource = 'ensemble'; positionsM = alongLine(ex, ey); } // stacked sections
   else {
     positionSource = 'trace-order';
     positionsM = new Float64Array(nTraces);

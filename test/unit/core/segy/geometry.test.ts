@@ -63,17 +63,6 @@ describe('gatherGeometry', () => {
     expect(Array.from(g.missingGrid)).toEqual([4]);
   });
 
-  it('stacked section with only ensemble (CDP) coordinates: ensemble positions', () => {
-    const hs = [0, 1, 2, 4].map((i) => {
-      const h = header({});
-      return { ...h, ensembleX: 100 + 12.5 * i, ensembleY: 7 };
-    });
-    const g = gatherGeometry(hs, live(4, 1), 1);
-    expect(g.positionSource).toBe('ensemble');
-    expect(g.spacingM).toBeCloseTo(12.5, 9);
-    expect(Array.from(g.missingGrid)).toEqual([3]);
-  });
-
   it('geographic coordinates (arc-seconds) become metres', () => {
     // 1 arc-second of latitude ≈ 30.87 m (6 371 km mean radius): receivers 1″ apart northwards.
     const hs = [0, 1, 2, 3].map((i) => header({ rx: 200000, ry: 180000 + i, units: 2 }));
