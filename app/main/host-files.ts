@@ -35,6 +35,8 @@ interface SaveEntry {
   tempPath: string;
   handle: FileHandle;
   sizeBytes: number;
+  /** Calls on one save run one after another (the renderer may send chunks without awaiting each). */
+  queue: Promise<unknown>;
 }
 
 const MAX_PATH_CHARS = 4096;
@@ -149,47 +151,59 @@ export class HostFiles {
     } catch (err) {
       throw fileProblem('output.write-failed', target, err, 'Choose a folder you can write to.');
     }
-    this.saves.set(id, { targetPath: target, tempPath, handle, sizeBytes: 0 });
+    this.saves.set(id, { targetPath: target, tempPath, handle, sizeBytes: 0, queue: Promise.resolve() });
     return { saveId: id };
   }
 
   async writeChunk(saveId: unknown, bytes: unknown): Promise<void> {
     const [id, entry] = this.save(saveId);
     const b = checkBytes('bytes', bytes, MAX_CHUNK_BYTES);
-    if (entry.sizeBytes + b.length > MAX_SAVE_BYTES) throw badArgument('bytes', bytes, `a file of at most ${MAX_SAVE_BYTES} bytes in all`);
-    try {
-      let done = 0;
-      while (done < b.length) {
-        const { bytesWritten } = await entry.handle.write(b, done, b.length - done, entry.sizeBytes + done);
-        done += bytesWritten;
+    return this.enqueue(entry, async () => {
+      if (this.saves.get(id) !== entry) throw badArgument('saveId', saveId, 'the id of a save in progress');
+      if (entry.sizeBytes + b.length > MAX_SAVE_BYTES) throw badArgument('bytes', bytes, `a file of at most ${MAX_SAVE_BYTES} bytes in all`);
+      try {
+        let done = 0;
+        while (done < b.length) {
+          const { bytesWritten } = await entry.handle.write(b, done, b.length - done, entry.sizeBytes + done);
+          done += bytesWritten;
+        }
+        entry.sizeBytes += b.length;
+      } catch (err) {
+        await this.dropSave(id, entry);
+        throw fileProblem('output.write-failed', entry.targetPath, err, 'The disk may be full; nothing was written at the chosen path.');
       }
-      entry.sizeBytes += b.length;
-    } catch (err) {
-      await this.dropSave(id, entry);
-      throw fileProblem('output.write-failed', entry.targetPath, err, 'The disk may be full; nothing was written at the chosen path.');
-    }
+    });
   }
 
   async finishSave(saveId: unknown): Promise<SavedFile> {
     const [id, entry] = this.save(saveId);
-    try {
-      await this.refuseInputPath(entry.targetPath);
-      await entry.handle.sync();
-      await entry.handle.close();
-      this.saves.delete(id);
-      await rename(entry.tempPath, entry.targetPath);
-    } catch (err) {
-      await this.dropSave(id, entry);
-      if (err instanceof InputFileError) throw err;
-      throw fileProblem('output.write-failed', entry.targetPath, err, 'Nothing was written at the chosen path.');
-    }
-    return { name: basename(entry.targetPath), sizeBytes: entry.sizeBytes };
+    return this.enqueue(entry, async () => {
+      if (this.saves.get(id) !== entry) throw badArgument('saveId', saveId, 'the id of a save in progress');
+      try {
+        await this.refuseInputPath(entry.targetPath);
+        await entry.handle.sync();
+        await entry.handle.close();
+        this.saves.delete(id);
+        await rename(entry.tempPath, entry.targetPath);
+      } catch (err) {
+        await this.dropSave(id, entry);
+        if (err instanceof InputFileError) throw err;
+        throw fileProblem('output.write-failed', entry.targetPath, err, 'Nothing was written at the chosen path.');
+      }
+      return { name: basename(entry.targetPath), sizeBytes: entry.sizeBytes };
+    });
+  }
+
+  private enqueue<T>(entry: SaveEntry, step: () => Promise<T>): Promise<T> {
+    const run = entry.queue.then(step, step);
+    entry.queue = run.catch(() => undefined);
+    return run;
   }
 
   async abortSave(saveId: unknown): Promise<void> {
     const id = checkId('saveId', saveId, 's');
     const entry = this.saves.get(id);
-    if (entry) await this.dropSave(id, entry);
+    if (entry) await this.enqueue(entry, () => this.dropSave(id, entry));
   }
 
   /** Closes every handle and removes unfinished temporary files (on quit). */

@@ -133,6 +133,14 @@ describe('saving', () => {
     expect(await codeOf(files.writeChunk('s1', payload))).toBe('input.bad-argument');
   });
 
+  it('keeps chunks in call order when the renderer does not await each one', async () => {
+    await files.saveDialog('out.sgy', 'segy');
+    const chunks = Array.from({ length: 50 }, (_, i) => payload.subarray(i * 20, (i + 1) * 20));
+    await Promise.all(chunks.map((c) => files.writeChunk('s1', c)));
+    expect(await files.finishSave('s1')).toEqual({ name: 'out.sgy', sizeBytes: 1000 });
+    expect(new Uint8Array(await readFile(join(dir, 'out.sgy')))).toEqual(payload);
+  });
+
   it('abort leaves an existing target untouched and removes the temporary file', async () => {
     await writeFile(join(dir, 'out.sgy'), 'keep me');
     await files.saveDialog('out.sgy', 'segy');
