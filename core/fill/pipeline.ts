@@ -6,7 +6,7 @@
  * Layout: trace-major (core/grid/gather.ts); slopes on the pair grid (core/pwd/operator.ts).
  * Filled traces are estimates, not recordings: the hold-out score is the measure of trust.
  */
-import { BugError, throwIfCancelled, type CancelToken } from '../problems';
+import { BugError, isInputFileError, throwIfCancelled, type CancelToken } from '../problems';
 import { snrDb } from '../quality/snr';
 import { fillRmsRatio, gapRmsRatio } from './amplitude';
 import { clipWildSlopes, slopeEstimator, slopesForFill, type SlopeEstimator } from './fill-slopes';
@@ -174,13 +174,20 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   for (const h of design.hidden) dH.fill(0, h * nSamples, (h + 1) * nSamples);
   let holdoutSnr = Number.NaN;
   let fillH: GapSolverResult | null = null;
+  let holdoutProblem = '';
   if (design.hidden.length) {
     report('holdout', 0.55 * span);
     // Hiding every k-th recorded trace of a decimated gather can leave a regular grid of a larger factor.
     const factorH = plan.factor > 1 ? holdoutFactor(unkH, plan.factor) : 1;
-    const slopesH = input.slopePairs ?? estimate(dH, unkH, factorH);
-    fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6 * span, span);
-    holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
+    try {
+      const slopesH = input.slopePairs ?? estimate(dH, unkH, factorH);
+      fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6 * span, span);
+      holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
+    } catch (e) {
+      // The hidden traces can leave too little to estimate from; the fill itself stands, without a score.
+      if (!isInputFileError(e)) throw e;
+      holdoutProblem = e.problem.code;
+    }
   }
 
   let chosen = fill1;
@@ -227,6 +234,7 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   }
 
   details.clippedSlopeSamples = clippedSlopes;
+  if (holdoutProblem) details.holdoutProblem = holdoutProblem;
   const filled = Float32Array.from(input.data);
   for (let x = 0; x < nTraces; x++) {
     if (!unknown[x]) continue;

@@ -10,6 +10,8 @@ export interface FixtureGather {
   absent?: number[];
   /** Grid positions whose trace is flagged dead (trace ID 2) and holds junk. */
   dead?: number[];
+  /** Apex of the hyperbolas, trace index (default record − 4). */
+  apexTrace?: number;
 }
 
 export const N_SAMPLES = 200;
@@ -19,8 +21,8 @@ export const SPACING_M = 10;
 export function gatherTruth(g: FixtureGather): Float32Array {
   const u = new Float64Array(g.nPositions * N_SAMPLES);
   const events: HyperbolaSpec[] = [
-    { t0Samples: 50, velocityTracesPerSample: 0.4, apexTrace: -4 + g.record, fpCyclesPerSample: 0.07 },
-    { t0Samples: 110, velocityTracesPerSample: 0.5, apexTrace: -4 + g.record, fpCyclesPerSample: 0.07, amplitude: -0.7 },
+    { t0Samples: 50, velocityTracesPerSample: 0.4, apexTrace: g.apexTrace ?? -4 + g.record, fpCyclesPerSample: 0.07 },
+    { t0Samples: 110, velocityTracesPerSample: 0.5, apexTrace: g.apexTrace ?? -4 + g.record, fpCyclesPerSample: 0.07, amplitude: -0.7 },
   ];
   for (const e of events) addHyperbola(u, g.nPositions, N_SAMPLES, e);
   return Float32Array.from(u);
