@@ -5,7 +5,9 @@ import { afterAll, describe, expect, it } from 'vitest';
 import type { CliContext } from '../../app/cli/context';
 import { runCli } from '../../app/cli/runner';
 import { memoryByteSource } from '../../core/segy/byte-source';
-import { indexGathers, openSegy, parseGatherKey, readGather } from '../../core/segy';
+import { gatherGeometry, indexGathers, openSegy, parseGatherKey, readGather } from '../../core/segy';
+import { gatherOnGrid } from '../../core/fill/gather-grid';
+import { estimateSlopes } from '../../core/slope/estimate';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 const FIXTURES = join(ROOT, 'test/fixtures/segy');
@@ -63,6 +65,30 @@ describe('dipweave dips', () => {
     expect(d.gathers.map((g) => g.nTraces)).toEqual([16, 16]);
     const flagged = d.gathers[0].headers.filter((h) => h.fields.DIPWEAVE_FILLED_FLAG === 1).length;
     expect(flagged).toBe(3);
+  });
+
+  it('values are the core estimate at the input trace positions, converted to ms per trace (2 ms sampling)', async () => {
+    const input = join(FIXTURES, 'two-gathers.sgy');
+    expect((await run(['dips', input, '--out', 'v.sgy', '--units', 'ms-per-trace'])).code).toBe(0);
+    const a = await readSegy(input), d = await readSegy(join(dir, 'v.sgy'));
+    const g = a.gathers[0];
+    const geo = gatherGeometry(g.headers, g.data, g.nSamples);
+    const live = new Uint8Array(geo.gridCount);
+    for (let k = 0; k < geo.gridCount; k++) live[k] = geo.traceOfGrid[k] >= 0 ? 1 : 0;
+    for (const k of geo.deadGrid) live[k] = 0;
+    const f = estimateSlopes(gatherOnGrid(g.data, geo, g.nSamples), geo.gridCount, g.nSamples, live);
+    const dtMs = a.file.sampleIntervalUs / 1000;
+    for (let t = 0; t < g.nTraces; t++) {
+      const k = geo.gridIndexOfTrace[t];
+      for (let s = 0; s < g.nSamples; s += 7) expect(d.gathers[0].data[t * g.nSamples + s]).toBeCloseTo(Math.fround(f.slopeTraces[k * g.nSamples + s] * dtMs), 4);
+    }
+  });
+
+  it('an --on-grid dip file is accepted by dipweave fill --dips', async () => {
+    const input = join(FIXTURES, 'two-gathers.sgy');
+    expect((await run(['dips', input, '--out', 'grid.sgy', '--on-grid'])).code).toBe(0);
+    const r = await run(['fill', input, '--out', 'filled.sgy', '--dips', 'grid.sgy', '--jobs', '1']);
+    expect(r.code, r.err).toBe(0);
   });
 
   it('refuses to write over its input, needs --out, and needs a spacing for s/km', async () => {
