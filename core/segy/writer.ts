@@ -65,6 +65,23 @@ export interface WriterSummary {
 
 /** Cards the note needs at least in the main textual header; fewer free cards push it to an extended header. */
 export const NOTE_MIN_CARDS = 4;
+/** Characters of note text per card: 80 minus the "Cnn " label. */
+const NOTE_LINE_CHARS = CARD_CHARS - 4;
+
+/** Split text into lines of at most `width` characters at spaces (a longer word is cut). */
+function wrapWords(text: string, width: number): string[] {
+  const lines: string[] = [];
+  let cur = '';
+  for (const word of text.split(' ')) {
+    for (let w = word; w.length > 0; w = w.slice(width)) {
+      const piece = w.slice(0, width);
+      if (cur && cur.length + 1 + piece.length > width) { lines.push(cur); cur = piece; }
+      else cur = cur ? `${cur} ${piece}` : piece;
+    }
+  }
+  if (cur) lines.push(cur);
+  return lines;
+}
 
 /** Fields interpolated linearly along the grid for a new trace (integers rounded to nearest). */
 const INTERPOLATED: readonly TraceFieldName[] = [
@@ -157,37 +174,25 @@ export class SegyWriter {
   }
 
   private noteLines(final: boolean): string[] {
-    const lines = [
+    const paragraphs = [
       'DIPWEAVE NOTE: FILLED TRACES ARE ESTIMATES, NOT RECORDINGS.',
-      `FLAG: TRACE BYTES 233-234 = ${FILLED_FLAG_VALUE} ON EVERY FILLED TRACE (TRACE ID CODE SET TO 1).`,
+      `FLAG: BYTES 233-234 OF EACH FILLED TRACE HEADER = ${FILLED_FLAG_VALUE} (TRACE ID CODE 1).`,
+      `METHOD: ${this.options.method.replace(/\s+/g, ' ').trim()}`,
     ];
-    const words = `METHOD: ${this.options.method.replace(/\s+/g, ' ').trim()}`.split(' ');
-    let cur = '';
-    for (const w of words) {
-      if ((cur + ' ' + w).trim().length > CARD_CHARS - 4) { lines.push(cur); cur = w; }
-      else cur = (cur + ' ' + w).trim();
+    if (!final) paragraphs.push('FILLED TRACE LIST: WRITING NOT COMPLETED.');
+    else {
+      const ranges: string[] = [];
+      const nums = this.filledNumbers;
+      for (let i = 0; i < nums.length; ) {
+        let j = i;
+        while (j + 1 < nums.length && nums[j + 1] === nums[j] + 1) j++;
+        ranges.push(i === j ? `${nums[i]}` : `${nums[i]}-${nums[j]}`);
+        i = j + 1;
+      }
+      paragraphs.push(`FILLED: ${nums.length} OF ${this.written} TRACES; OUTPUT TRACE NUMBERS (1 = FIRST):`);
+      paragraphs.push(ranges.length ? ranges.join(' ') : 'NONE');
     }
-    if (cur) lines.push(cur);
-    if (!final) {
-      lines.push('FILLED TRACE LIST: WRITING NOT COMPLETED.');
-      return lines;
-    }
-    const ranges: string[] = [];
-    const nums = this.filledNumbers;
-    for (let i = 0; i < nums.length; ) {
-      let j = i;
-      while (j + 1 < nums.length && nums[j + 1] === nums[j] + 1) j++;
-      ranges.push(i === j ? `${nums[i]}` : `${nums[i]}-${nums[j]}`);
-      i = j + 1;
-    }
-    lines.push(`FILLED: ${nums.length} OF ${this.written} TRACES; OUTPUT TRACE NUMBERS (1 = FIRST):`);
-    cur = '';
-    for (const r of ranges) {
-      if ((cur + ' ' + r).trim().length > CARD_CHARS - 4) { lines.push(cur); cur = r; }
-      else cur = (cur + ' ' + r).trim();
-    }
-    if (cur || ranges.length === 0) lines.push(cur || 'NONE');
-    return lines;
+    return paragraphs.flatMap((p) => wrapWords(p, NOTE_LINE_CHARS));
   }
 
   private writeNote(final: boolean): void {

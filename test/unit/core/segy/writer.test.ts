@@ -88,13 +88,25 @@ describe('SegyWriter', () => {
     }
     const note = back.textCards.join('\n');
     expect(note).toContain('FILLED TRACES ARE ESTIMATES, NOT RECORDINGS');
-    expect(note).toContain('BYTES 233-234');
+    expect(note).toContain('FLAG: BYTES 233-234 OF EACH FILLED TRACE HEADER = 1 (TRACE ID CODE 1).');
     expect(note).toContain('METHOD: plane-wave least squares');
     expect(note).toContain('FILLED: 12 OF 32 TRACES');
     expect(note).toContain('6-8 12 18 20-22 24 26 28 30');
     // Cards that carried text are untouched.
     for (let c = 0; c < 3; c++) expect(back.textCards[c]).toBe(file.textCards[c]);
     expect(back.textCards[38]).toBe(file.textCards[38]);
+  });
+
+  it('wraps a long method description over cards without losing a word', async () => {
+    const method = Array.from({ length: 40 }, (_, i) => `step${i}`).join(' ') + ' ' + 'x'.repeat(90);
+    const file = await openSegy(memoryByteSource('a', fixtureBytes('good.sgy')));
+    const { out } = await writeAll(file, { method }, (o) => { o.filled[5] = 1; });
+    const back = await openSegy(memoryByteSource('b', out));
+    const bodies = back.textCards.map((c) => c.slice(4).trimEnd()).filter((b) => b.length > 0);
+    for (const b of bodies) expect(b.length).toBeLessThanOrEqual(76);
+    const joined = bodies.join(' ');
+    expect(joined).toContain(`METHOD: ${method.slice(0, 300)}`);
+    expect(joined.replace(/ /g, '')).toContain('x'.repeat(90));
   });
 
   it('keeps sequence numbers and every original header byte when asked not to renumber', async () => {
