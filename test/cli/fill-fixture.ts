@@ -17,19 +17,23 @@ export interface FixtureGather {
 export const N_SAMPLES = 200;
 export const SPACING_M = 10;
 
-/** Truth of one gather on its full grid (trace-major, Float32 as stored). */
-export function gatherTruth(g: FixtureGather): Float32Array {
-  const u = new Float64Array(g.nPositions * N_SAMPLES);
-  const events: HyperbolaSpec[] = [
+/** The analytic events of one gather. */
+export function fixtureEvents(g: FixtureGather): HyperbolaSpec[] {
+  return [
     { t0Samples: 50, velocityTracesPerSample: 0.4, apexTrace: g.apexTrace ?? -4 + g.record, fpCyclesPerSample: 0.07 },
     { t0Samples: 110, velocityTracesPerSample: 0.5, apexTrace: g.apexTrace ?? -4 + g.record, fpCyclesPerSample: 0.07, amplitude: -0.7 },
   ];
-  for (const e of events) addHyperbola(u, g.nPositions, N_SAMPLES, e);
+}
+
+/** Truth of one gather on its full grid (trace-major, Float32 as stored). */
+export function gatherTruth(g: FixtureGather): Float32Array {
+  const u = new Float64Array(g.nPositions * N_SAMPLES);
+  for (const e of fixtureEvents(g)) addHyperbola(u, g.nPositions, N_SAMPLES, e);
   return Float32Array.from(u);
 }
 
 /** A rev 1, big-endian, 4-byte IEEE file; receiver X every 10 m, source fixed per gather. */
-export function buildFillFixture(gathers: FixtureGather[]): Uint8Array {
+export function buildFillFixture(gathers: FixtureGather[], valuesOf: (g: FixtureGather) => Float32Array = gatherTruth): Uint8Array {
   const traces: { g: FixtureGather; pos: number }[] = [];
   for (const g of gathers) for (let pos = 0; pos < g.nPositions; pos++) if (!g.absent?.includes(pos)) traces.push({ g, pos });
   const traceBytes = 240 + 4 * N_SAMPLES;
@@ -46,7 +50,7 @@ export function buildFillFixture(gathers: FixtureGather[]): Uint8Array {
   v.setInt16(3254, 1);
   out[3500] = 1;
   v.setInt16(3502, 1);
-  const truths = new Map(gathers.map((g) => [g.record, gatherTruth(g)]));
+  const truths = new Map(gathers.map((g) => [g.record, valuesOf(g)]));
   traces.forEach(({ g, pos }, i) => {
     const p = 3600 + i * traceBytes;
     v.setInt32(p, i + 1);
