@@ -42,7 +42,7 @@ export interface DrawStats {
   strokes: number;
 }
 
-/** `image` holds the density picture (width nTraces, height nSamples) or is null in wiggle-only mode. */
+/** `image` holds the density picture (width nSamples, height nTraces: render/section-image.ts) or is null in wiggle-only mode. */
 export function drawSection(ctx: CanvasRenderingContext2D, widthPx: number, heightPx: number, scene: SectionScene,
   image: CanvasImageSource | null): DrawStats {
   const rect = plotRectFor(widthPx, heightPx);
@@ -56,9 +56,13 @@ export function drawSection(ctx: CanvasRenderingContext2D, widthPx: number, heig
   ctx.fillStyle = '#fcfbf7';
   ctx.fillRect(rect.left, rect.top, rect.width, rect.height);
   if (image) {
+    // The picture is stored trace-major (nSamples wide, nTraces high): swap the axes while drawing it.
+    ctx.save();
+    ctx.transform(0, 1, 1, 0, 0, 0);
     ctx.imageSmoothingEnabled = false;
-    ctx.drawImage(image, w.traceStart, w.sampleStart, w.traceEnd - w.traceStart, w.sampleEnd - w.sampleStart,
-      rect.left, rect.top, rect.width, rect.height);
+    ctx.drawImage(image, w.sampleStart, w.traceStart, w.sampleEnd - w.sampleStart, w.traceEnd - w.traceStart,
+      rect.top, rect.left, rect.height, rect.width);
+    ctx.restore();
   }
   const stats: DrawStats = { wiggleTraceStep: 0, strokes: 0 };
   if (scene.mode !== 'density') stats.wiggleTraceStep = drawWiggles(ctx, rect, scene);

@@ -19,9 +19,15 @@ export interface GainSettings {
 
 export const DEFAULT_GAIN: GainSettings = { traceBalance: false, agcWindowMs: 0, clipPercentile: 98 };
 
-/** Per-sample multipliers (trace-major), already divided by the clip level. */
+/**
+ * Display gain = factor · scale[i]: per-sample multipliers (trace-major) when balance or AGC is on, else
+ * null (plain clip: one factor for every sample, no per-sample array to build).
+ */
 export interface DisplayGain {
-  readonly scale: Float32Array;
+  readonly scale: Float32Array | null;
+  /** 1 / clip. */
+  readonly factor: number;
+  /** The clip level in the units of the gained-but-unclipped samples. */
   readonly clip: number;
 }
 
@@ -31,6 +37,12 @@ export interface DisplayGain {
  */
 export function computeDisplayGain(reference: Float32Array, nTraces: number, nSamples: number, live: Uint8Array,
   dtSeconds: number, settings: GainSettings, out?: Float32Array): DisplayGain {
+  const half = Math.floor((settings.agcWindowMs / 1000 / dtSeconds) / 2);
+  const agc = settings.agcWindowMs > 0 && half >= 1;
+  if (!settings.traceBalance && !agc) {
+    const clip = percentileAbs(reference, null, nTraces, nSamples, live, settings.clipPercentile);
+    return { scale: null, factor: clip > 0 ? 1 / clip : 1, clip };
+  }
   const scale = out ?? new Float32Array(nTraces * nSamples);
   scale.fill(1);
   if (settings.traceBalance) {
@@ -43,8 +55,7 @@ export function computeDisplayGain(reference: Float32Array, nTraces: number, nSa
       for (let t = 0; t < nSamples; t++) scale[base + t] = g;
     }
   }
-  const half = Math.floor((settings.agcWindowMs / 1000 / dtSeconds) / 2);
-  if (settings.agcWindowMs > 0 && half >= 1) {
+  if (agc) {
     const sums = new Float64Array(nSamples + 1);
     for (let x = 0; x < nTraces; x++) {
       const base = x * nSamples;
@@ -71,31 +82,33 @@ export function computeDisplayGain(reference: Float32Array, nTraces: number, nSa
     }
   }
   const clip = percentileAbs(reference, scale, nTraces, nSamples, live, settings.clipPercentile);
-  const inv = clip > 0 ? 1 / clip : 1;
-  for (let i = 0; i < scale.length; i++) scale[i] *= inv;
-  return { scale, clip };
+  return { scale, factor: clip > 0 ? 1 / clip : 1, clip };
 }
 
 /**
- * Percentile of |reference·scale| over live traces, from a strided sample of at most ~200 000 values
+ * Percentile of |reference·scale| over live traces, from a strided sample of at most ~65 536 values
  * (enough for a display clip; exact order statistics would sort millions of values on every change).
+ * With fewer values than that, it is the exact linear-interpolation percentile (numpy's default).
  */
-export function percentileAbs(reference: Float32Array, scale: Float32Array, nTraces: number, nSamples: number,
+export function percentileAbs(reference: Float32Array, scale: Float32Array | null, nTraces: number, nSamples: number,
   live: Uint8Array, percentile: number): number {
   let nLive = 0;
   for (let x = 0; x < nTraces; x++) if (live[x]) nLive++;
   const total = nLive * nSamples;
   if (total === 0) return 0;
-  const stride = Math.max(1, Math.floor(total / 200_000));
+  const stride = Math.max(1, Math.ceil(total / 65_536));
   const values = new Float32Array(Math.ceil(total / stride));
   let k = 0;
+  let next = 0; // index, counted over live samples only, of the next value to keep
   let seen = 0;
   for (let x = 0; x < nTraces; x++) {
     if (!live[x]) continue;
     const base = x * nSamples;
-    for (let t = 0; t < nSamples; t++, seen++) {
-      if (seen % stride === 0 && k < values.length) values[k++] = Math.abs(reference[base + t] * scale[base + t]);
+    for (; next < seen + nSamples && k < values.length; next += stride) {
+      const i = base + (next - seen);
+      values[k++] = Math.abs(scale ? reference[i] * scale[i] : reference[i]);
     }
+    seen += nSamples;
   }
   const v = values.subarray(0, k).sort();
   const p = Math.min(100, Math.max(0, percentile)) / 100;
@@ -105,9 +118,11 @@ export function percentileAbs(reference: Float32Array, scale: Float32Array, nTra
   return i + 1 < k ? v[i] * (1 - f) + v[i + 1] * f : v[i];
 }
 
-/** out[i] = data[i] · gain.scale[i]. @returns out */
+/** out[i] = data[i] · factor · scale[i]. @returns out */
 export function applyDisplayGain(out: Float32Array, data: Float32Array, gain: DisplayGain): Float32Array {
   const s = gain.scale;
-  for (let i = 0; i < out.length; i++) out[i] = data[i] * s[i];
+  const f = gain.factor;
+  if (s) for (let i = 0; i < out.length; i++) out[i] = data[i] * s[i] * f;
+  else for (let i = 0; i < out.length; i++) out[i] = data[i] * f;
   return out;
 }

@@ -1,8 +1,10 @@
 /**
  * Builds the variable-density picture of a whole gather, with the dip layer blended in, as packed RGBA
- * pixels (width = nTraces, height = nSamples; pixel (trace, sample) at sample * nTraces + trace).
+ * pixels in the gather's own trace-major layout: the image is nSamples wide and nTraces high, pixel
+ * (sample, trace) at trace * nSamples + sample (core/grid/gather.ts), so every read and write runs along
+ * memory. The view draws it with the axes swapped (time down, positions across).
  * Pure arithmetic, no DOM: the view copies the pixels into an ImageData once and then only blits it while
- * zooming and panning. Input layout is trace-major (core/grid/gather.ts).
+ * zooming and panning.
  */
 import { lutIndex, packRgba, type Lut } from './colormap';
 import { TraceStatus } from './trace-status';
@@ -41,28 +43,41 @@ export function buildSectionPixels(out: Uint32Array, input: ImageInput): Uint32A
   const packed = lut?.packed;
   const dipPacked = dip?.lut.packed;
   const dipInv = dip && dip.maxAbs > 0 ? 1 / dip.maxAbs : 0;
+  const conf = dip?.confidence ?? null;
+  const field = dip?.field ?? null;
+  const opacity256 = dip ? Math.round(dip.opacity * 256) : 0;
   for (let x = 0; x < nTraces; x++) {
     const st = status[x];
     const base = x * nSamples;
     if (st === TraceStatus.missing) {
       // Diagonal hatch: reads as "nothing here" at any zoom and in grey print.
-      for (let t = 0; t < nSamples; t++) out[t * nTraces + x] = ((t + 3 * x) % 8) < 3 ? HATCH_B : HATCH_A;
+      for (let t = 0; t < nSamples; t++) out[base + t] = ((t + 3 * x) % 8) < 3 ? HATCH_B : HATCH_A;
       continue;
     }
     if (st === TraceStatus.dead) {
-      for (let t = 0; t < nSamples; t++) out[t * nTraces + x] = DEAD;
+      out.fill(DEAD, base, base + nSamples);
       continue;
     }
     for (let t = 0; t < nSamples; t++) {
-      let c = packed ? packed[lutIndex(shown[base + t])] : PAPER;
-      if (dipPacked && dip) {
-        const w = dip.opacity * (dip.confidence ? dip.confidence[base + t] : 1);
-        if (w > 0.004) c = blend(c, dipPacked[lutIndex(dip.field[base + t] * dipInv)], w);
+      const i = base + t;
+      let c = packed ? packed[lutIndex(shown[i])] : PAPER;
+      if (dipPacked && field) {
+        const w = conf ? (opacity256 * conf[i]) | 0 : opacity256;
+        if (w > 0) c = blend256(c, dipPacked[lutIndex(field[i] * dipInv)], w);
       }
-      out[t * nTraces + x] = c;
+      out[i] = c;
     }
   }
   return out;
+}
+
+/** Integer blend of two packed opaque colours, weight w/256 of the second (w in 0..256). */
+export function blend256(a: number, b: number, w: number): number {
+  const v = 256 - w;
+  const r = ((a & 255) * v + (b & 255) * w) >> 8;
+  const g = (((a >>> 8) & 255) * v + ((b >>> 8) & 255) * w) >> 8;
+  const bl = (((a >>> 16) & 255) * v + ((b >>> 16) & 255) * w) >> 8;
+  return (0xff000000 | (bl << 16) | (g << 8) | r) >>> 0;
 }
 
 /** Linear blend of two packed colours, weight w of the second. */

@@ -109,6 +109,6 @@ for tr in d:
     out.append(tr / np.maximum(rms, rms.max() * 1e-3))
 out = np.array(out)
 print(json.dumps({'g': out.ravel().tolist(), 'clip': float(np.abs(out).max())}))`, { d: Array.from(d), nx: nTraces, nt: nSamples }) as { g: number[]; clip: number };
-    for (let i = 0; i < d.length; i++) expect(Math.abs(d[i] * g.scale[i] - ref.g[i] / ref.clip)).toBeLessThan(2e-5);
+    for (let i = 0; i < d.length; i++) expect(Math.abs(d[i] * g.scale![i] * g.factor - ref.g[i] / ref.clip)).toBeLessThan(2e-5);
   });
 });
