@@ -1,6 +1,7 @@
 /**
  * Zero-phase low-pass of every trace along time by FFT. Layout: trace-major (core/grid/gather.ts).
- * Each trace is padded with zeros to a power of two ≥ 2·nSamples (no wrap-around of the tail onto the head),
+ * Each trace is padded with zeros to a power of two ≥ nSamples + 4/(stop − pass) + 16 (longer than the filter's
+ * effective impulse response, so the tail does not wrap around onto the head),
  * multiplied in frequency by a cosine-tapered box: 1 below passCyclesPerSample, 0 above stopCyclesPerSample
  * (cycles per sample; Nyquist is 0.5), and transformed back.
  */
@@ -18,7 +19,7 @@ export interface LowpassWorkspace {
 export function createLowpassWorkspace(nSamples: number, passCyclesPerSample: number, stopCyclesPerSample: number): LowpassWorkspace {
   if (!(passCyclesPerSample >= 0) || !(stopCyclesPerSample > passCyclesPerSample))
     throw new RangeError(`lowpass: need 0 ≤ pass < stop. Values: ${passCyclesPerSample}, ${stopCyclesPerSample}`);
-  const size = nextPowerOfTwo(2 * Math.max(1, nSamples));
+  const size = nextPowerOfTwo(Math.max(1, nSamples) + Math.ceil(4 / (stopCyclesPerSample - passCyclesPerSample)) + 16);
   const plan = createRealFftPlan(size);
   const gain = new Float64Array(size / 2 + 1);
   for (let b = 0; b <= size / 2; b++) {

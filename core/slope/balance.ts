@@ -2,7 +2,7 @@
  * Amplitude balance before slope estimation (common practice, no source: automatic gain control).
  * Shot gathers decay by orders of magnitude with time and offset; destruction residuals would then be ruled by
  * the strongest samples. out = u / sqrt(T(u²) + ε), with T a triangle smoother along time (radius
- * windowRadiusSamples) and across traces (radius windowRadiusTraces; 1 = trace by trace), ε = 1e-6 · mean(u²)
+ * windowRadiusSamples) and across traces (radius windowRadiusTraces; 1 = trace by trace), ε = 1e-12 · mean(u²) (120 dB below the mean level)
  * so exact zeros (missing traces, mutes) stay zero. Only the estimate uses the balanced copy; fills use true
  * amplitudes. Layout: trace-major (core/grid/gather.ts).
  */
@@ -22,7 +22,7 @@ export function balanceAmplitudes(u: ArrayLike<number>, nTraces: number, nSample
   if (!(mean > 0)) return out;
   const tri = createTriangle2D(nTraces, nSamples, Math.max(1, Math.round(windowRadiusSamples)), Math.max(1, Math.round(windowRadiusTraces)));
   triangle2DApply(tri, energy, energy);
-  const eps = 1e-6 * mean;
+  const eps = 1e-12 * mean;
   for (let i = 0; i < n; i++) out[i] = u[i] / Math.sqrt(Math.max(0, energy[i]) + eps);
   return out;
 }

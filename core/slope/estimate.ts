@@ -36,7 +36,7 @@ export const SLOPE_DEFAULTS = {
   radiusTraces: 3,
   order: 1,
   outerIterations: 3,
-  innerIterations: 6,
+  innerIterations: 4,
   stepLimit: 1,
 } as const;
 
@@ -60,7 +60,7 @@ const MIN_SLOPE_BOUND = 3;
 const SLOPE_BOUND_FACTOR = 2;
 
 /**
- * Frequency (cycles per sample) below which `fraction` of the energy of the traces lies (power spectra of all
+ * Frequency (cycles per sample) below which `fraction` of the energy of the traces lies (power spectra of tapered
  * traces summed; fft.js through core/fft).
  */
 export function energyBandEdge(u: ArrayLike<number>, nTraces: number, nSamples: number, fraction: number): number {
@@ -68,8 +68,14 @@ export function energyBandEdge(u: ArrayLike<number>, nTraces: number, nSamples: 
   const plan = createRealFftPlan(size);
   const buf = new Float64Array(size), spec = new Float64Array(2 * size);
   const power = new Float64Array(size / 2 + 1);
-  for (let x = 0; x < nTraces; x++) {
-    for (let t = 0; t < nSamples; t++) buf[t] = u[x * nSamples + t];
+  // Tukey taper (10 % cosine at each end): a trace cut off mid-event would otherwise leak broadband energy.
+  const taper = new Float64Array(nSamples).fill(1);
+  const edge = Math.max(1, Math.floor(0.1 * nSamples));
+  for (let t = 0; t < edge; t++) taper[t] = taper[nSamples - 1 - t] = 0.5 * (1 - Math.cos((Math.PI * (t + 0.5)) / edge));
+  // A subset of traces is enough for a band edge (at most ~48 spectra).
+  const step = Math.max(1, Math.floor(nTraces / 48));
+  for (let x = 0; x < nTraces; x += step) {
+    for (let t = 0; t < nSamples; t++) buf[t] = u[x * nSamples + t] * taper[t];
     plan.impl.realTransform(spec, buf);
     for (let k = 0; k <= size / 2; k++) power[k] += spec[2 * k] * spec[2 * k] + spec[2 * k + 1] * spec[2 * k + 1];
   }
@@ -351,7 +357,9 @@ export function estimateSlopes(
     observations = observationsOnWorkGrid(editRasterValue, editRasterWeight, grid, nTraces, nWork, nSamples);
     res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, observations, cancel);
   }
-  const inpaintedWork = inpaintGapSlopes(res.sigma, res.conf, workLive, nWork, nSamples);
+  const gapOpt = options.gapSlopes ?? 'along-events';
+  if (gapOpt !== 'along-events' && gapOpt !== 'prior') throw badOption('gapSlopes', gapOpt, 'along-events or prior');
+  const inpaintedWork = gapOpt === 'along-events' ? inpaintGapSlopes(res.sigma, res.conf, workLive, nWork, nSamples) : new Uint8Array(res.sigma.length);
 
   let estimatePairs: Float64Array, confidencePairs: Float64Array, inpaintedPairs: Uint8Array;
   if (grid) {

@@ -98,7 +98,10 @@ export function smoothDivideUnchecked(
     out.fill(0, 0, n);
     return { iterations: 0, relativeResidual: 0, lambdaSquared: lambda2 };
   }
-  applyShapingOperator(ws, aDir, p, den, lambda2);
+  let warm = false;
+  for (let i = 0; i < n && !warm; i++) if (p[i] !== 0) warm = true;
+  if (warm) applyShapingOperator(ws, aDir, p, den, lambda2);
+  else aDir.fill(0);
   let gamma = 0;
   for (let i = 0; i < n; i++) {
     const r = out[i] - aDir[i];

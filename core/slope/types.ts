@@ -19,7 +19,7 @@ export interface SlopeOptions {
   readonly order?: PwdOrder;
   /** Gauss-Newton steps per resolution level (default 3). */
   readonly outerIterations?: number;
-  /** Conjugate-gradient steps per smooth division (default 6). */
+  /** Conjugate-gradient steps per smooth division (default 4; warm-started across Gauss-Newton steps). */
   readonly innerIterations?: number;
   /** Largest slope change per Gauss-Newton step, samples per trace (default 1). */
   readonly stepLimit?: number;
@@ -36,6 +36,11 @@ export interface SlopeOptions {
   /** Low-pass before estimating, cycles per sample (Nyquist 0.5); 'auto' (default): only for decimated data, below
    * the alias frequency 1/(2|σ_c,max|) of the steepest coarse slope; 'off': never. */
   readonly lowpassCyclesPerSample?: number | 'auto' | 'off';
+  /**
+   * Slopes in runs of missing traces: 'along-events' (default) carries them from the gap's edges along event
+   * paths (gap.ts); 'prior' leaves what the regularised estimate gives there (it decays to the prior).
+   */
+  readonly gapSlopes?: 'along-events' | 'prior';
   /** Hand edits applied after the estimate, in order; they always win (core/slope/edits.ts). */
   readonly edits?: readonly DipEdit[];
   /** Also feed edits to the estimator as weighted observations so nearby slopes bend toward them (default false). */
