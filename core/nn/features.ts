@@ -2,7 +2,8 @@
  * Choice of the fixed Fourier-feature frequencies (Tancik et al. 2020 draw them from a Gaussian; ours are drawn
  * from the data instead). Along t̃ the frequencies follow the mean amplitude spectrum of the live traces in the
  * window, so the features cover the band that is actually there. Along x̃:
- *   'dip'        ω_x = −σ̃·ω_t + jitter, with σ̃ a slope drawn from the window's slope field: each feature is then
+ *   'dip'        ω_x = −σ̃·ω_t + jitter, with σ̃ a slope drawn from the window's slope field where the live data
+ *                have energy (estimated slopes in quiet parts are poorly constrained): each feature is then
  *                nearly a plane wave that already satisfies u_x̃ + σ̃ u_t̃ = 0 (our design; measured in
  *                docs/network.md against the alternative);
  *   'isotropic'  ω_x Gaussian with the spread implied by the slopes present (closer to plain Fourier features).
@@ -49,6 +50,8 @@ export interface FeatureDraw {
   nSamples: number;
   /** Slopes (samples per trace) to draw from, e.g. the window's pair-grid slope field. */
   slopes: Float64Array;
+  /** Drawing weight per slope (e.g. data energy beside it), or null for uniform. */
+  slopeWeights: Float64Array | null;
   /** Amplitude spectrum, bin k = k/nSpectrum cycles per sample (nSpectrum = the DFT length). */
   spectrum: Float64Array;
   nSpectrum: number;
@@ -64,6 +67,20 @@ export function drawFeatureFrequencies(d: FeatureDraw): { omegaT: Float64Array; 
   const cdf = new Float64Array(d.spectrum.length);
   let acc = 0;
   for (let k = 0; k < d.spectrum.length; k++) cdf[k] = acc += d.spectrum[k];
+  const slopeCdf = new Float64Array(d.slopes.length);
+  let slopeAcc = 0;
+  for (let i = 0; i < d.slopes.length; i++) slopeCdf[i] = slopeAcc += d.slopeWeights ? d.slopeWeights[i] : 1;
+  const drawSlope = (): number => {
+    const target = rng.uniform() * slopeAcc;
+    let lo = 0;
+    let hi = slopeCdf.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (slopeCdf[mid] < target) lo = mid + 1;
+      else hi = mid;
+    }
+    return d.slopes[lo];
+  };
   let rmsSlope = 0;
   for (let i = 0; i < d.slopes.length; i++) rmsSlope += d.slopes[i] * d.slopes[i];
   rmsSlope = d.slopes.length ? Math.sqrt(rmsSlope / d.slopes.length) : 0;
@@ -82,8 +99,8 @@ export function drawFeatureFrequencies(d: FeatureDraw): { omegaT: Float64Array; 
     }
     const wt = 2 * Math.PI * f * tScale * (rng.uniform() < 0.5 ? -1 : 1);
     omegaT[j] = wt;
-    if (d.mode === 'dip' && d.slopes.length) {
-      const sig = d.slopes[rng.int(0, d.slopes.length)] * slopeToScaled;
+    if (d.mode === 'dip' && d.slopes.length && slopeAcc > 0) {
+      const sig = drawSlope() * slopeToScaled;
       // Jitter of about a quarter cycle across the window lets amplitudes vary along x.
       omegaX[j] = -sig * wt + 2 * Math.PI * 0.25 * rng.normal();
     } else {

@@ -107,8 +107,18 @@ export async function trainNetWindow(job: NetWindowJob, o: NetTrainOptions, hook
 
   const rng = new Rng(job.seed);
   const spectrum = meanAmplitudeSpectrum(new Float64Array(Math.floor(nSamples / 2) + 1), data, known, nTraces, nSamples);
+  // Slopes for the features are drawn where live data have energy: weight of pair (p, t) = energy of its live traces.
+  const slopeWeights = new Float64Array(job.slopePairs.length);
+  for (let p = 0; p < nTraces - 1; p++) {
+    for (let t = 0; t < nSamples; t++) {
+      let e = 0;
+      if (known[p]) e += data[p * nSamples + t] ** 2;
+      if (known[p + 1]) e += data[(p + 1) * nSamples + t] ** 2;
+      slopeWeights[p * nSamples + t] = e;
+    }
+  }
   const { omegaT, omegaX } = drawFeatureFrequencies({
-    nFreq: o.nFreq, mode: o.features, nTraces, nSamples, slopes: job.slopePairs, spectrum, nSpectrum: nSamples, seed: rng.int(0, 2 ** 31),
+    nFreq: o.nFreq, mode: o.features, nTraces, nSamples, slopes: job.slopePairs, slopeWeights, spectrum, nSpectrum: nSamples, seed: rng.int(0, 2 ** 31),
   });
   const model = buildNetModel({ width: o.width, depth: o.depth, activation: o.activation }, omegaT, omegaX);
   const params = initNetParams(model, rng.int(0, 2 ** 31));
