@@ -63,7 +63,7 @@ describe.skipIf(!haveChromium)('files in and out', () => {
     await dropFile(s.page, 'dropped.sgy', readFileSync(path));
     await expect.poll(() => s.page.textContent('[data-testid=file-name]'), { timeout: 20_000 }).toBe('dropped.sgy');
     // Shot 1 of the file: 96 channel positions, 12 of them absent (make_segy.py), 12.5 m apart.
-    expect(await s.page.textContent('[data-testid=gather-label]')).toContain('96 positions');
+    expect(await s.page.textContent('[data-testid=gather-label]')).toContain('1 of 2 · 96 positions');
     expect(await s.page.textContent('[data-testid=legend-missing]')).toContain('12');
     await shot(s.page, 'e2e-10-dropped');
     await s.page.click('[data-testid=next-gather]');
@@ -120,6 +120,58 @@ describe.skipIf(!haveChromium)('files in and out', () => {
     await page.setInputFiles('[data-testid=recipe-input]', badPath);
     const e = await lastError(page);
     expect(e.code).toBe('input.bad-recipe');
+  });
+
+  it('exports every gather of the decimated demo, the dip field and a PNG of the view', async () => {
+    const page = s.page;
+    await page.click('[data-testid=step-open]');
+    await page.click('[data-testid=demo-grv07-decimated\\.sgy]');
+    await expect.poll(() => page.textContent('[data-testid=file-name]')).toBe('grv07-decimated.sgy');
+    // The headers hold every second group only (25 m): nothing is missing on their grid until k = 2 is given.
+    expect(await page.textContent('[data-testid=legend-missing]')).toBe('missing 0');
+    await page.click('[data-testid=step-fill]');
+    await page.fill('[data-testid=factor]', '2');
+    await page.press('[data-testid=factor]', 'Enter');
+    await expect.poll(() => page.textContent('[data-testid=plan-summary]')).toContain('Regular decimation by 2');
+    expect(await page.textContent('[data-testid=legend-missing]')).toBe('missing 71');
+    await shot(page, 'e2e-15-decimated-plan');
+    await page.click('[data-testid=step-dips]');
+    await page.click('[data-testid=estimate]');
+    await page.waitForSelector('[data-testid=slope-description]', { timeout: 60_000 });
+    expect(await page.textContent('[data-testid=slope-description]')).toContain('coarse grid');
+    await page.click('[data-testid=step-save]');
+    const [all] = await Promise.all([page.waitForEvent('download', { timeout: 180_000 }), page.click('[data-testid=export-all]')]);
+    const allPath = join(RESULTS, 'e2e-all-gathers.sgy');
+    await all.saveAs(allPath);
+    const [dips] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid=export-slopes]')]);
+    const dipsPath = join(RESULTS, 'e2e-dips.sgy');
+    await dips.saveAs(dipsPath);
+    expect(dips.suggestedFilename()).toMatch(/dips-ms-per-trace\.sgy$/);
+    const [png] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid=export-png]')]);
+    const pngPath = join(RESULTS, 'e2e-view.png');
+    await png.saveAs(pngPath);
+    expect(readFileSync(pngPath).subarray(0, 8).toString('hex')).toBe('89504e470d0a1a0a'); // PNG signature (PNG spec)
+    await shot(page, 'e2e-16-exported-all');
+    if (havePy) {
+      const rb = (p: string) => {
+        const r = spawnSync(PY, [join(import.meta.dirname, 'read_output.py'), p], { encoding: 'utf8', maxBuffer: 512 << 20 });
+        expect(r.status, r.stderr).toBe(0);
+        return JSON.parse(r.stdout) as { n: number; ns: number; text: string; flags: number[]; traces: number[][] };
+      };
+      const inFile = rb(join(ROOT, 'samples/grv07-decimated.sgy'));
+      const outAll = rb(allPath);
+      const filled = outAll.flags.filter((v) => v === 1).length;
+      // Every gather filled: the output holds the recorded traces plus one new trace between each recorded pair.
+      expect(outAll.n).toBe(inFile.n + filled);
+      expect(filled).toBeGreaterThan(0.8 * inFile.n);
+      expect(outAll.text.toUpperCase()).toContain('ESTIMATES, NOT RECORDINGS');
+      const outDips = rb(dipsPath);
+      expect(outDips.text.toUpperCase()).toContain('SLOPE FIELD');
+      expect(outDips.text.toUpperCase()).toContain('MS/TRACE');
+      // One slope trace per grid position of the gather on screen.
+      const nGrid = await page.evaluate(() => (window as unknown as { __dipweave: { gather: { nTraces: number } } }).__dipweave.gather.nTraces);
+      expect(outDips.n).toBe(nGrid);
+    }
   });
 
   it('cancels a long network fill and stays usable', async () => {

@@ -48,6 +48,7 @@ export class AppState {
   spectra = $state.raw<SpectraResult | null>(null);
   restoredFrom = $state<string | null>(null);
   spacingM = $state<number | null>(null);
+  factor = $state(1);
   exporting = $state<string | null>(null);
   readonly #io: WorkerClient;
   readonly #jobs: WorkerClient;
@@ -102,14 +103,16 @@ export class AppState {
     try {
       this.autosaver.flush();
       const opened = await this.#io.call('open', { source, name });
+      const first = await this.#io.call('read', { gather: 0 });
+      // File and gather change together, so the screen never shows a new name over an old gather.
       this.spacingM = null;
+      this.factor = 1;
       this.file = opened;
       this.#saved = loadWork(this.#store, opened.name, opened.sizeBytes);
       this.restoredFrom = this.#saved ? this.#saved.savedAtIso : null;
       if (this.#saved?.settings) this.#restoreSettings(this.#saved.settings);
       this.#warn(opened.warnings);
-      this.gatherIndex = 0;
-      await this.loadGather(0);
+      this.#showGather(first);
       this.step = 'look';
       return true;
     } catch (e) {
@@ -125,8 +128,10 @@ export class AppState {
     this.busy = 'Grouping traces…';
     try {
       this.autosaver.flush();
-      this.file = await this.#io.call('regroup', { key, spacingM: this.spacingM });
-      await this.loadGather(0);
+      const file = await this.#io.call('regroup', { key, spacingM: this.spacingM, factor: this.factor });
+      const first = await this.#io.call('read', { gather: 0 });
+      this.file = file;
+      this.#showGather(first);
     } catch (e) {
       this.report(e, 'Grouping');
     } finally {
@@ -134,7 +139,16 @@ export class AppState {
     }
   }
 
-  /** Trace spacing for files whose headers carry no geometry (null = use the headers). */
+  /**
+   * Regular decimation to fill: k−1 new positions between neighbouring recorded traces (the CLI's --factor).
+   * Needed when the headers show only the coarse grid (every second group kept: 25 m instead of 12.5 m).
+   */
+  async setFactor(k: number): Promise<void> {
+    this.factor = Number.isInteger(k) && k >= 1 ? k : 1;
+    if (this.file) await this.regroup(this.file.key);
+  }
+
+  /** Grid spacing override (null = from the headers); required for files whose headers carry no geometry. */
   async setSpacing(m: number | null): Promise<void> {
     this.spacingM = m;
     if (this.file) await this.regroup(this.file.key);
@@ -149,7 +163,15 @@ export class AppState {
   async loadGather(index: number): Promise<void> {
     if (!this.file) return;
     this.autosaver.flush();
-    const g = await this.#io.call('read', { gather: index });
+    try {
+      this.#showGather(await this.#io.call('read', { gather: index }));
+    } catch (e) {
+      this.report(e, 'Reading the gather');
+    }
+  }
+
+  #showGather(g: GatherPayload): void {
+    const index = g.index;
     this.#warn(g.warnings);
     this.gatherIndex = index;
     this.gather = g;
@@ -161,7 +183,7 @@ export class AppState {
       edits = [];
     }
     this.dips.setGather(g.nTraces, g.nSamples, edits);
-    this.fill.setGather(g.present, g.dead, work?.bad ?? []);
+    this.fill.setGather(g.present, g.dead, work?.bad ?? [], g.factor);
     this.spectra = null;
     this.header = null;
     this.headerTrace = -1;
@@ -453,6 +475,7 @@ export class AppState {
     return makeRecipe({
       ...(this.file ? { gatherKey: this.file.key } : {}),
       ...(this.spacingM ? { spacingM: this.spacingM } : {}),
+      ...(this.factor > 1 ? { factor: this.factor } : {}),
       fill: { solver: s.solver, lsq: { maxIterations: s.maxIterations, tolerance: s.tolerance }, net: { steps: s.steps, seed: s.seed }, holdout: s.holdout, secondPass: s.secondPass },
       slopes: { method: o.method, radiusTimeSamples: o.radiusTimeSamples, radiusTraces: o.radiusTraces, order: o.order },
       gathers,
@@ -498,8 +521,10 @@ export class AppState {
         version: 1, fileName: this.file.name, sizeBytes: this.file.sizeBytes, gatherKey: r.gatherKey ?? this.file.key,
         savedAtIso: new Date().toISOString(), gathers, settings: this.#settings(),
       };
+      const regrid = (r.spacingM !== undefined && r.spacingM !== this.spacingM) || (r.factor !== undefined && r.factor !== this.factor);
       if (r.spacingM !== undefined) this.spacingM = r.spacingM;
-      if (r.gatherKey && r.gatherKey !== this.file.key) await this.regroup(r.gatherKey);
+      if (r.factor !== undefined) this.factor = r.factor;
+      if (regrid || (r.gatherKey && r.gatherKey !== this.file.key)) await this.regroup(r.gatherKey ?? this.file.key);
       else await this.loadGather(this.gatherIndex);
       const n = Object.keys(gathers).length;
       this.notify({ kind: 'info', text: `Recipe loaded: settings${n ? `, and edits or marked traces for ${n} gather${n === 1 ? '' : 's'}` : ''}.` });

@@ -38,10 +38,10 @@ export class FillState {
   #lastRawStep = 0;
 
   /** New gather: plan from which positions are recorded and dead, plus traces marked bad earlier. */
-  setGather(present: Uint8Array, dead: Uint8Array, bad: readonly number[] = []): void {
+  setGather(present: Uint8Array, dead: Uint8Array, bad: readonly number[] = [], factor = 1): void {
     this.#present = present;
     this.#dead = dead;
-    this.plan = planFill({ nTraces: present.length, present, dead, bad: bad.filter((b) => b >= 0 && b < present.length && present[b]) });
+    this.plan = planFill({ nTraces: present.length, present, dead, bad: bad.filter((b) => b >= 0 && b < present.length && present[b]), ...(factor > 1 ? { factor } : {}) });
     this.result = null;
     this.loss = [];
     this.running = null;

@@ -5,7 +5,8 @@
  * Messages: workers/protocol.ts. Cancellation: a SharedArrayBuffer flag polled through the CancelToken.
  */
 /// <reference lib="webworker" />
-import { isInputFileError, type CancelToken } from '../../../core/problems';
+import { InputFileError, isInputFileError, type CancelToken } from '../../../core/problems';
+import { refineGeometry } from '../../../core/fill/gather-grid';
 import { openSegy, type SegyFile } from '../../../core/segy/open';
 import { indexGathers, parseGatherKey, readGather, type GatherIndex, type LoadedGather } from '../../../core/segy/gathers';
 import { gatherGeometry, type GatherGeometry } from '../../../core/segy/geometry';
@@ -28,6 +29,7 @@ interface Session {
   index: GatherIndex;
   key: string;
   spacingM: number | null;
+  factor: number;
   /** Last gather read, with its raw headers (the writer copies them unchanged). */
   last: { gather: number; loaded: LoadedGather; geometry: GatherGeometry; payload: GatherPayload } | null;
 }
@@ -62,7 +64,7 @@ function summary(s: Session): OpenedFile {
 async function readGridGather(s: Session, gather: number, cancel: CancelToken): Promise<GatherPayload> {
   if (s.last?.gather === gather) return { ...s.last.payload, data: s.last.payload.data.slice() };
   const loaded = await readGather(s.file, s.index, gather, { cancel });
-  const geo = gatherGeometry(loaded.headers, loaded.data, loaded.nSamples, s.spacingM ? { spacingM: s.spacingM } : {});
+  const geo = refineGeometry(gatherGeometry(loaded.headers, loaded.data, loaded.nSamples, s.spacingM ? { spacingM: s.spacingM } : {}), s.factor);
   const nGrid = geo.gridCount;
   const ns = loaded.nSamples;
   const data = new Float32Array(nGrid * ns);
@@ -87,7 +89,7 @@ async function readGridGather(s: Session, gather: number, cancel: CancelToken): 
   const payload: GatherPayload = {
     index: gather, keyValue: loaded.keyValue, nTraces: nGrid, nSamples: ns, dtSeconds: s.file.sampleIntervalUs / 1e6,
     data, present, dead, filledFlag, positionM,
-    offsetM, fileTrace, spacingM: Number.isFinite(geo.spacingM) ? geo.spacingM : null, positionTitle: titles[geo.positionSource], warnings: [...geo.warnings],
+    offsetM, fileTrace, spacingM: Number.isFinite(geo.spacingM) ? geo.spacingM : null, factor: s.factor, positionTitle: titles[geo.positionSource], warnings: [...geo.warnings],
   };
   s.last = { gather, loaded, geometry: geo, payload };
   return { ...payload, data: data.slice() };
@@ -124,13 +126,15 @@ const IO: { [K in ApiName]?: Handler<K> } = {
     const file = await openSegy(source);
     const key = p.key ?? 'shot';
     const index = await indexGathers(file, parseGatherKey(key), { cancel });
-    session = { file, index, key, spacingM: null, last: null };
+    session = { file, index, key, spacingM: null, factor: 1, last: null };
     return { result: summary(session) };
   },
   async regroup(p, cancel) {
     const s = need();
     const index = await indexGathers(s.file, parseGatherKey(p.key), { cancel });
-    session = { ...s, index, key: p.key, spacingM: p.spacingM, last: null };
+    if (!Number.isInteger(p.factor) || p.factor < 1 || p.factor > 64)
+      throw new InputFileError({ code: 'input.bad-argument', severity: 'error', message: 'the decimation factor must be a whole number from 1 to 64.', found: p.factor });
+    session = { ...s, index, key: p.key, spacingM: p.spacingM, factor: p.factor, last: null };
     return { result: summary(session) };
   },
   async read(p, cancel) {
@@ -166,7 +170,7 @@ const IO: { [K in ApiName]?: Handler<K> } = {
       progress({ gather: i, of: s.index.gathers.length, keyValue: s.index.gathers[i].keyValue });
       const { loaded, geometry, payload } = await gatherForWriting(s, i, cancel);
       const work = p.work[String(payload.keyValue)];
-      const plan = planFill({ nTraces: payload.nTraces, present: payload.present, dead: payload.dead, bad: (work?.bad ?? []).filter((b) => payload.present[b]) });
+      const plan = planFill({ nTraces: payload.nTraces, present: payload.present, dead: payload.dead, bad: (work?.bad ?? []).filter((b) => payload.present[b]), ...(s.factor > 1 ? { factor: s.factor } : {}) });
       const unknown = new Uint8Array(payload.nTraces);
       for (const r of plan.runs) unknown.fill(1, r.firstTrace, r.firstTrace + r.count);
       let gridData: Float32Array;

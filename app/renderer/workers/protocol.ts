@@ -66,6 +66,8 @@ export interface GatherPayload {
   /** File trace index per position, −1 where absent. */
   readonly fileTrace: Int32Array;
   readonly spacingM: number | null;
+  /** Refinement factor applied to the header grid (1 = none). */
+  readonly factor: number;
   readonly positionTitle: string;
   readonly warnings: FileProblem[];
 }
@@ -152,7 +154,8 @@ export interface ExportGather {
 /** Request/response/progress types per message type. */
 export interface Api {
   open: { req: { source: SourceRef; name: string; key?: GatherKeyName }; res: OpenedFile; progress: never };
-  regroup: { req: { key: GatherKeyName; spacingM: number | null }; res: OpenedFile; progress: never };
+  /** New key, grid spacing override, or refinement factor (k−1 new positions between recorded ones, as the CLI's --factor). */
+  regroup: { req: { key: GatherKeyName; spacingM: number | null; factor: number }; res: OpenedFile; progress: never };
   read: { req: { gather: number }; res: GatherPayload; progress: never };
   header: { req: { fileTrace: number }; res: HeaderField[]; progress: never };
   slopes: {
