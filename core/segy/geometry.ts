@@ -104,17 +104,60 @@ function median(values: number[]): number {
 
 const MAX_STEP_DIVISOR = 8;
 
-function fittingStep(positionsM: Float64Array, originM: number, medianStep: number, tol: number): number {
-  for (let d = 1; d <= MAX_STEP_DIVISOR; d++) {
-    const step = medianStep / d;
-    let ok = true;
-    for (const p of positionsM) {
-      const x = (p - originM) / step;
-      if (Math.abs(x - Math.round(x)) > tol) { ok = false; break; }
-    }
-    if (ok) return step;
+/** Circular mean of the fractional parts of x_i (in cycles), so one jittered trace cannot set the grid's phase. */
+function gridPhase(positionsM: Float64Array, originM: number, step: number): number {
+  let c = 0, sn = 0;
+  for (const p of positionsM) {
+    const a = 2 * Math.PI * ((p - originM) / step);
+    c += Math.cos(a);
+    sn += Math.sin(a);
   }
-  return medianStep;
+  return Math.atan2(sn, c) / (2 * Math.PI);
+}
+
+interface GridFit {
+  readonly k: Int32Array;
+  readonly spacingM: number;
+  readonly originM: number;
+  /** Largest |position − grid position| / spacing. */
+  readonly maxDev: number;
+  /** No two traces share a grid index. */
+  readonly unique: boolean;
+}
+
+/**
+ * Put the traces on a grid of about `step`: phase from all traces, then (when `refine`) a least-squares line
+ * through (grid index, position), twice, so neither one jittered trace nor a slightly wrong step moves it.
+ */
+function fitGrid(positionsM: Float64Array, pmin: number, step: number, refine: boolean): GridFit {
+  const n = positionsM.length;
+  const k = new Int32Array(n);
+  let spacing = step;
+  let origin = pmin + gridPhase(positionsM, pmin, step) * step;
+  const assign = (): number => {
+    let kmin = Infinity;
+    for (let i = 0; i < n; i++) { k[i] = Math.round((positionsM[i] - origin) / spacing); if (k[i] < kmin) kmin = k[i]; }
+    for (let i = 0; i < n; i++) k[i] -= kmin;
+    origin += kmin * spacing;
+    let dev = 0;
+    for (let i = 0; i < n; i++) dev = Math.max(dev, Math.abs(positionsM[i] - origin - k[i] * spacing) / spacing);
+    return dev;
+  };
+  let maxDev = assign();
+  // Exact grids keep their exact step; otherwise polish step and origin by least squares (twice).
+  for (let pass = 0; refine && n >= 3 && maxDev > 1e-9 && pass < 2; pass++) {
+    let sk = 0, sp = 0, skk = 0, skp = 0;
+    for (let i = 0; i < n; i++) { sk += k[i]; sp += positionsM[i]; skk += k[i] * k[i]; skp += k[i] * positionsM[i]; }
+    const den = n * skk - sk * sk;
+    const s = den > 0 ? (n * skp - sk * sp) / den : 0;
+    if (!(s > 0)) break;
+    spacing = s;
+    origin = (sp - s * sk) / n;
+    maxDev = assign();
+  }
+  const seen = new Set<number>();
+  for (let i = 0; i < n; i++) seen.add(k[i]);
+  return { k, spacingM: spacing, originM: origin, maxDev, unique: seen.size === n };
 }
 
 function irregular(message: string, found: string, hint: string): InputFileError {
@@ -188,34 +231,36 @@ export function gatherGeometry(headers: readonly TraceHeader[], data: Float32Arr
     for (let i = 1; i < sorted.length; i++) if (sorted[i] - sorted[i - 1] > eps) steps.push(sorted[i] - sorted[i - 1]);
     // Median step: robust to gaps (a gap is one long step) and to jitter. When some traces sit between the
     // median grid's positions (decimated data with a few full-rate traces), take the largest whole fraction
-    // of the median step on which every trace sits.
-    const step0 = userSpacing ?? fittingStep(positionsM, pmin, median(steps), tol);
-    for (let i = 0; i < nTraces; i++) gridIndexOfTrace[i] = Math.round((positionsM[i] - pmin) / step0);
-    spacingM = step0;
-    originM = pmin;
-    if (userSpacing === undefined && nTraces > 2) {
-      // Least-squares line through (grid index, position): a spacing and origin free of the first trace's jitter.
-      let sk = 0, sp = 0, skk = 0, skp = 0;
-      for (let i = 0; i < nTraces; i++) {
-        const k = gridIndexOfTrace[i], p = positionsM[i];
-        sk += k; sp += p; skk += k * k; skp += k * p;
+    // of the median step on which every trace sits. A spacing the user gives is kept as given.
+    let fit: GridFit;
+    if (userSpacing !== undefined) fit = fitGrid(positionsM, pmin, userSpacing, false);
+    else {
+      // A finer grid (m/d) must fit clearly better than the median step's (half the deviation or less) with a
+      // step within 1% of m/d: jitter alone must not halve the spacing, a trace between two median-grid
+      // positions does.
+      const m = median(steps);
+      const first = fitGrid(positionsM, pmin, m, nTraces > 2);
+      let best: GridFit | undefined = first.unique && first.maxDev <= tol ? first : undefined;
+      for (let d = 2; d <= MAX_STEP_DIVISOR; d++) {
+        const f = fitGrid(positionsM, pmin, m / d, nTraces > 2);
+        // The polish may not wander from m/d: with more grid positions than traces, a free fit matches anything.
+        if (!f.unique || f.maxDev > tol || Math.abs(f.spacingM - m / d) > 0.01 * (m / d)) continue;
+        if (!best) { best = f; break; }
+        if (f.maxDev <= 0.5 * best.maxDev) { best = f; break; }
       }
-      const den = nTraces * skk - sk * sk;
-      if (den > 0) {
-        spacingM = (nTraces * skp - sk * sp) / den;
-        originM = (sp - spacingM * sk) / nTraces;
-      }
+      fit = best ?? first;
     }
+    const step0 = fit.spacingM;
+    gridIndexOfTrace.set(fit.k);
+    spacingM = fit.spacingM;
+    originM = fit.originM;
+    maxJitter = fit.maxDev;
     gridCount = 0;
     for (let i = 0; i < nTraces; i++) gridCount = Math.max(gridCount, gridIndexOfTrace[i] + 1);
     if (gridCount > MAX_GRID_PER_TRACE * nTraces + 100)
       throw irregular('the trace positions do not form a regular line: the grid would be far larger than the gather.',
         `${nTraces} traces spanning ${(pmax - pmin).toFixed(2)} m with a median step of ${step0.toFixed(3)} m (${gridCount} grid positions)`,
         'Choose another gather key, or give the spacing explicitly.');
-    for (let i = 0; i < nTraces; i++) {
-      const j = Math.abs(positionsM[i] - (originM + gridIndexOfTrace[i] * spacingM)) / spacingM;
-      if (j > maxJitter) maxJitter = j;
-    }
     if (maxJitter > tol)
       warnings.push({
         code: 'geometry.irregular', severity: 'warning',

@@ -53,6 +53,18 @@ describe('gatherGeometry', () => {
     expect(g.warnings.length).toBe(0);
   });
 
+  it('a strongly jittered first trace does not set the grid (phase taken over all traces)', () => {
+    // Jitter of ±5 m on 25 m (20%): first trace late, several others early. Measured from the first trace alone,
+    // traces would sit 40% off the grid; centred on all traces, at most 20%.
+    const jitter = [5, -5, -4, 3, -5, 4, -3, 5, -5, 0];
+    const hs = jitter.map((j, i) => header({ rx: 100 * (i * 25 + j), scalar: -100 }));
+    const g = gatherGeometry(hs, live(hs.length, 1), 1);
+    expect(g.spacingM).toBeGreaterThan(24);
+    expect(g.spacingM).toBeLessThan(26);
+    expect(Array.from(g.gridIndexOfTrace)).toEqual(jitter.map((_, i) => i));
+    expect(g.missingGrid.length).toBe(0);
+  });
+
   it('receiver gather: source positions; CMP gather: offsets', () => {
     const rg = [0, 1, 2, 3].map((i) => header({ sx: 100 * i, rx: 7 }));
     expect(gatherGeometry(rg, live(4, 1), 1).positionSource).toBe('source');
