@@ -58,6 +58,15 @@ describe('dipweave inspect (in process)', () => {
     expect(r.err).toContain(`[${problem}]`);
   });
 
+  it('reads in a forced byte order, and says so when that order makes the header absurd', async () => {
+    const r = await run(['inspect', `${FIXTURES}/good-le-guess.sgy`, '--byte-order', 'little', '--json']);
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.out)).toMatchObject({ byteOrder: 'little', byteOrderSource: 'option', traceCount: 12 });
+    const bad = await run(['inspect', `${FIXTURES}/good.sgy`, '--byte-order', 'little']);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toContain('[segy.format-code]');
+  });
+
   it('reads contradictory headers with --lenient', async () => {
     const r = await run(['inspect', `${FIXTURES}/contradictory-interval.sgy`, '--lenient', '--json']);
     expect(r.code).toBe(0);

@@ -1,5 +1,5 @@
 /**
- * `dipweave inspect FILE [--key NAME|BYTE] [--spacing M] [--json]`: what a SEG-Y file holds and, for each
+ * `dipweave inspect FILE [--key NAME|BYTE] [--spacing M] [--byte-order big|little] [--lenient] [--json]`: what a SEG-Y file holds and, for each
  * gather, its geometry (spacing, grid, missing and dead positions). Reads every trace once.
  */
 import { resolve } from 'node:path';
@@ -17,6 +17,7 @@ export const inspectSpec: CommandSpec = {
   options: [
     { name: 'key', kind: 'string', meta: 'NAME|BYTE', default: 'record', help: `trace header key that groups traces into gathers: ${Object.keys(GATHER_KEY_NAMES).join(', ')}, a field name, or a byte position BYTE[:2|:4]` },
     { name: 'spacing', kind: 'number', meta: 'M', help: 'trace spacing in metres (needed where headers carry no geometry; overrides the estimate otherwise)' },
+    { name: 'byte-order', kind: 'string', choices: ['big', 'little'], help: 'read in this byte order instead of the one found in or guessed from the header' },
     { name: 'lenient', kind: 'flag', help: 'read files whose headers contradict each other, with warnings instead of errors' },
     { name: 'json', kind: 'flag', help: 'print the summary as JSON' },
   ],
@@ -57,7 +58,8 @@ async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
     throw new InputFileError({ code: 'input.bad-argument', severity: 'error', message: 'option --spacing needs a positive number of metres.', found: spacingM });
   const source = await openFileByteSource(path);
   try {
-    const file = await openSegy(source, { strict: !args.options.lenient });
+    const byteOrder = args.options['byte-order'] as 'big' | 'little' | undefined;
+    const file = await openSegy(source, { strict: !args.options.lenient, byteOrder });
     const index = await indexGathers(file, key, { cancel: ctx.cancel });
     const gathers: InspectGather[] = [];
     for (let i = 0; i < index.gathers.length; i++) {
