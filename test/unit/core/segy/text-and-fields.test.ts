@@ -87,3 +87,28 @@ describe('readTraceFields', () => {
     }
   });
 });
+
+describe('scalars and units', () => {
+  it('applies the SEG-Y scalar rule (methods.md §6.8: 123456 with −100 → 1234.56, with +10 → 1234560, 0 → 1)', async () => {
+    const { applyScalar, parseTraceHeader } = await import('../../../../core/segy/trace-header');
+    expect(applyScalar(123456, -100)).toBeCloseTo(1234.56, 10);
+    expect(applyScalar(123456, 10)).toBe(1234560);
+    expect(applyScalar(123456, 0)).toBe(123456);
+    expect(applyScalar(123456, 1)).toBe(123456);
+    expect(applyScalar(123456, -1)).toBe(123456);
+    // Elevations use 69–70, coordinates 71–72; lengths in feet become metres (0.3048 m/ft, exact by definition).
+    const b = new Uint8Array(240);
+    const v = new DataView(b.buffer);
+    v.setInt32(40, 1000); // receiver elevation
+    v.setInt16(68, 10); // elevation scalar ×10
+    v.setInt16(70, -10); // coordinate scalar ÷10
+    v.setInt32(80, 12345); // receiver X
+    v.setInt32(36, 100); // offset: not scaled
+    const m = parseTraceHeader(b, 0, false, 'm');
+    expect([m.receiverElevationM, m.receiverX, m.offsetM]).toEqual([10000, 1234.5, 100]);
+    const ft = parseTraceHeader(b, 0, false, 'ft');
+    expect(ft.receiverElevationM).toBeCloseTo(3048, 9);
+    expect(ft.receiverX).toBeCloseTo(1234.5 * 0.3048, 9);
+    expect(ft.offsetM).toBeCloseTo(30.48, 12);
+  });
+});
