@@ -11,7 +11,11 @@ import { FillState } from './fill.svelte';
 import { Autosaver, loadWork, type KeyValueStore, type SavedWork } from './autosave';
 import { DIP_EDIT_MODEL } from './dip-edit-model';
 import { isCancelled, WorkerCallError, type RunningCall, type WorkerClient } from '../workers/rpc';
-import type { FillResult, GatherKeyName, GatherPayload, HeaderField, OpenedFile, SourceRef, SpectraResult } from '../workers/protocol';
+import type { FillResult, FillSettings, GatherKeyName, GatherPayload, HeaderField, OpenedFile, SlopeOptions, SourceRef, SpectraResult } from '../workers/protocol';
+
+function inRange(v: unknown, lo: number, hi: number): boolean {
+  return typeof v === 'number' && Number.isFinite(v) && v >= lo && v <= hi;
+}
 import { saveBytes } from '../io/host';
 import type { SaveKind } from '../../shared/ipc';
 import { slopeUnitFactor, SLOPE_UNIT_LABEL } from '../../../core/slope/units';
@@ -294,8 +298,32 @@ export class AppState {
     return { view: this.view.toJSON(), slope: { ...this.dips.options }, fill: { ...this.fill.settings } };
   }
 
+  /** Settings from autosave: each value is checked and anything odd is ignored (defaults stay). */
   #restoreSettings(s: Record<string, unknown>): void {
     if (s.view && typeof s.view === 'object') this.view.restore(s.view as Record<string, never>);
+    const o = s.slope as Partial<SlopeOptions> | undefined;
+    if (o && typeof o === 'object') {
+      const d = this.dips.options;
+      this.dips.options = {
+        method: o.method === 'pwd' || o.method === 'tensor' ? o.method : d.method,
+        radiusTimeSamples: inRange(o.radiusTimeSamples, 1, 1000) ? o.radiusTimeSamples! : d.radiusTimeSamples,
+        radiusTraces: inRange(o.radiusTraces, 1, 1000) ? o.radiusTraces! : d.radiusTraces,
+        order: o.order === 1 || o.order === 2 ? o.order : d.order,
+      };
+    }
+    const f = s.fill as Partial<FillSettings> | undefined;
+    if (f && typeof f === 'object') {
+      const d = this.fill.settings;
+      this.fill.settings = {
+        solver: f.solver === 'lsq' || f.solver === 'net' ? f.solver : d.solver,
+        maxIterations: inRange(f.maxIterations, 1, 100_000) ? Math.round(f.maxIterations!) : d.maxIterations,
+        tolerance: inRange(f.tolerance, 1e-12, 1) ? f.tolerance! : d.tolerance,
+        steps: inRange(f.steps, 1, 1_000_000) ? Math.round(f.steps!) : d.steps,
+        seed: inRange(f.seed, 0, 2 ** 31 - 1) ? Math.round(f.seed!) : d.seed,
+        holdout: typeof f.holdout === 'boolean' ? f.holdout : d.holdout,
+        secondPass: typeof f.secondPass === 'boolean' ? f.secondPass : d.secondPass,
+      };
+    }
   }
 
   // ---- fill ------------------------------------------------------------------------------------------------
@@ -370,14 +398,14 @@ export class AppState {
   }
 
   /** How the traces were made, for the textual-header note of the output. */
-  methodText(): string {
+  methodText(withScore = true): string {
     const s = this.fill.settings;
     const solver = s.solver === 'lsq' ? `LEAST-SQUARES PLANE-WAVE FILL (CG, MAX ${s.maxIterations} IT.)` : `COORDINATE NETWORK (${s.steps} STEPS, SEED ${s.seed})`;
     const o = this.dips.options;
     const dips = `${o.method === 'pwd' ? 'PLANE-WAVE DESTRUCTION' : 'STRUCTURE TENSOR'} SLOPES, RADII ${o.radiusTimeSamples} SAMPLES X ${o.radiusTraces} TRACES`;
     const edits = this.dips.edits.length ? `, ${this.dips.edits.length} HAND EDITS` : '';
     const score = this.fill.result?.holdoutSnrDb;
-    const ho = score !== null && score !== undefined && Number.isFinite(score) ? `; HOLD-OUT SCORE ${score.toFixed(1)} DB` : '';
+    const ho = withScore && score !== null && score !== undefined && Number.isFinite(score) ? `; HOLD-OUT SCORE ${score.toFixed(1)} DB` : '';
     return `${solver}; ${dips}${edits}${ho}. DIPWEAVE DESKTOP.`;
   }
 
@@ -412,7 +440,7 @@ export class AppState {
     this.exporting = 'Filling every gather…';
     try {
       const out = await this.#io.call('fillAll', {
-        slope: { ...this.dips.options }, settings: { ...this.fill.settings }, method: this.methodText(),
+        slope: { ...this.dips.options }, settings: { ...this.fill.settings }, method: this.methodText(false),
         work: Object.fromEntries(Object.entries(snap?.gathers ?? {}).map(([k, v]) => [k, { edits: v.edits, bad: v.bad }])),
         current: r && this.gather ? { gather: this.gatherIndex, data: r.data, filled: this.fill.unknown } : null,
       }, {

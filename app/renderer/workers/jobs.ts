@@ -70,7 +70,9 @@ export const JOBS: { [K in ApiName]?: Handler<K> } = {
     );
     const result = {
       data: r.filled, holdoutSnrDb: Number.isNaN(r.holdoutSnrDb) ? null : r.holdoutSnrDb,
-      holdoutDescription: holdoutWords(r.holdoutKind, r.holdoutTraces),
+      holdoutDescription: holdoutWords(r.holdoutKind, r.holdoutTraces) + (p.slopePairs
+        ? ' The check used the dip field on screen, which was estimated with the hidden traces present, so the score may lean optimistic.'
+        : ' Slopes were estimated again without the hidden traces, as for the real gap.'),
       holdoutTraces: r.holdoutTraces,
       gapRmsRatio: Number.isFinite(r.gapRmsRatio) ? r.gapRmsRatio : null,
       iterations: r.iterations, seconds: r.seconds, solver: r.solver, converged: r.converged, secondPass: r.secondPass,
