@@ -229,7 +229,9 @@ function estimateOnWorkGrid(
       }
     }
     const ws = createGaussNewtonWorkspace(nTraces, lev.nSamples, rt, s.radiusTraces);
-    const rep = gaussNewtonSlopes(ws, sigma, lev.data, pairLive, prior, shift, { ...s, radiusTimeSamples: rt }, l === 0 ? observations : undefined, cancel);
+    // Coarse levels only start the finer ones: one Gauss-Newton step fewer there.
+    const outer = l === 0 ? s.outerIterations : Math.max(1, s.outerIterations - 1);
+    const rep = gaussNewtonSlopes(ws, sigma, lev.data, pairLive, prior, shift, { ...s, radiusTimeSamples: rt, outerIterations: outer }, l === 0 ? observations : undefined, cancel);
     // Incoherent zones may wander: keep every slope within the planned bound.
     const b = slopeBound / m;
     for (let i = 0; i < sigma.length; i++) sigma[i] = sigma[i] > b ? b : sigma[i] < -b ? -b : sigma[i];

@@ -19,6 +19,9 @@ export function triangleAcrossScratchLength(nCols: number, nSamples: number, rad
   return (nCols + radius) * nSamples;
 }
 
+/** Radii up to this use direct taps (2r−1 weights (r − |d|)/r²) instead of running sums: fewer passes. */
+const DIRECT_MAX_RADIUS = 4;
+
 /**
  * Smooth every column along time with radius r (integer ≥ 1). out may be x. Unchecked, allocation-free.
  * @param scratch length ≥ nSamples + r
@@ -32,6 +35,7 @@ export function triangleTimeUnchecked(out: Float64Array, x: Float64Array, nCols:
   }
   const inv = 1 / (r * r);
   const ns = nSamples;
+  if (r <= DIRECT_MAX_RADIUS && ns > 2 * r) return triangleTimeDirect(out, x, nCols, ns, r, scratch);
   const nFull = ns + r - 1;
   const y = scratch;
   for (let c = 0; c < nCols; c++) {
@@ -69,6 +73,7 @@ export function triangleAcrossUnchecked(out: Float64Array, x: Float64Array, nCol
     return out;
   }
   const inv = 1 / (r * r);
+  if (r <= DIRECT_MAX_RADIUS) return triangleAcrossDirect(out, x, nCols, ns, r, scratch);
   const nFull = nCols + r - 1;
   const y = scratch;
   // y row j = y row j−1 + x col j − x col j−r
@@ -96,6 +101,81 @@ export function triangleAcrossUnchecked(out: Float64Array, x: Float64Array, nCol
   }
   const n = nCols * ns;
   for (let i = 0; i < n; i++) out[i] *= inv;
+  return out;
+}
+
+/** Direct-tap time smoothing for small radii; copies each column to scratch first so out may be x. */
+function triangleTimeDirect(out: Float64Array, x: Float64Array, nCols: number, ns: number, r: number, scratch: Float64Array): Float64Array {
+  const inv = 1 / (r * r);
+  const col = scratch;
+  for (let c = 0; c < nCols; c++) {
+    const base = c * ns;
+    for (let t = 0; t < ns; t++) col[t] = x[base + t];
+    // edges: taps outside the trace are zero
+    for (let t = 0; t < r - 1; t++) out[base + t] = edgeSum(col, t, ns, r) * inv;
+    for (let t = ns - r + 1; t < ns; t++) out[base + t] = edgeSum(col, t, ns, r) * inv;
+    if (r === 2) for (let t = 1; t < ns - 1; t++) out[base + t] = (col[t - 1] + 2 * col[t] + col[t + 1]) * inv;
+    else if (r === 3) for (let t = 2; t < ns - 2; t++) out[base + t] = (col[t - 2] + col[t + 2] + 2 * (col[t - 1] + col[t + 1]) + 3 * col[t]) * inv;
+    else for (let t = r - 1; t < ns - r + 1; t++) {
+      let a = r * col[t];
+      for (let d = 1; d < r; d++) a += (r - d) * (col[t - d] + col[t + d]);
+      out[base + t] = a * inv;
+    }
+  }
+  return out;
+}
+
+function edgeSum(col: Float64Array, t: number, ns: number, r: number): number {
+  let a = 0;
+  for (let d = -(r - 1); d <= r - 1; d++) {
+    const k = t + d;
+    if (k >= 0 && k < ns) a += (r - Math.abs(d)) * col[k];
+  }
+  return a;
+}
+
+/**
+ * Direct-tap smoothing across columns for small radii, in one pass per output column. Columns already
+ * overwritten are read from a ring of their original values in scratch (r columns), so out may be x.
+ */
+function triangleAcrossDirect(out: Float64Array, x: Float64Array, nCols: number, ns: number, r: number, scratch: Float64Array): Float64Array {
+  const inv = 1 / (r * r);
+  const ring = scratch;
+  for (let c = 0; c < nCols; c++) {
+    const o = c * ns;
+    const slot = (c % r) * ns;
+    for (let t = 0; t < ns; t++) ring[slot + t] = x[o + t];
+    // source offsets: left neighbours from the ring, right neighbours still original in x; -1 = outside
+    const w0 = r * inv;
+    if (r === 2) {
+      const l1 = c >= 1 ? ((c - 1) % r) * ns : -1;
+      const r1 = c + 1 < nCols ? (c + 1) * ns : -1;
+      const w1 = inv;
+      if (l1 >= 0 && r1 >= 0) for (let t = 0; t < ns; t++) out[o + t] = w0 * ring[slot + t] + w1 * (ring[l1 + t] + x[r1 + t]);
+      else if (l1 >= 0) for (let t = 0; t < ns; t++) out[o + t] = w0 * ring[slot + t] + w1 * ring[l1 + t];
+      else if (r1 >= 0) for (let t = 0; t < ns; t++) out[o + t] = w0 * ring[slot + t] + w1 * x[r1 + t];
+      else for (let t = 0; t < ns; t++) out[o + t] = w0 * ring[slot + t];
+      continue;
+    }
+    if (r === 3 && c >= 2 && c + 2 < nCols) {
+      const l1 = ((c - 1) % r) * ns, l2 = ((c - 2) % r) * ns, r1 = (c + 1) * ns, r2 = (c + 2) * ns;
+      const w1 = 2 * inv, w2 = inv;
+      for (let t = 0; t < ns; t++) out[o + t] = w0 * ring[slot + t] + w1 * (ring[l1 + t] + x[r1 + t]) + w2 * (ring[l2 + t] + x[r2 + t]);
+      continue;
+    }
+    for (let t = 0; t < ns; t++) out[o + t] = w0 * ring[slot + t];
+    for (let d = 1; d < r; d++) {
+      const w = (r - d) * inv;
+      if (c - d >= 0) {
+        const a = ((c - d) % r) * ns;
+        for (let t = 0; t < ns; t++) out[o + t] += w * ring[a + t];
+      }
+      if (c + d < nCols) {
+        const b = (c + d) * ns;
+        for (let t = 0; t < ns; t++) out[o + t] += w * x[b + t];
+      }
+    }
+  }
   return out;
 }
 

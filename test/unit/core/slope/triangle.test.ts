@@ -20,8 +20,8 @@ describe('triangle smoothing (Claerbout 1992; Fomel 2007 shaping)', () => {
 
   // Analytic impulse response: box ⋆ reversed box of length r = triangle with weights (r − |d|)/r² (common practice,
   // Claerbout 1992 "triangle smoothing").
-  it('impulse response is the triangle (r − |d|)/r² along time and across', () => {
-    const r = 5, ns = 31, nc = 21;
+  it.each([2, 3, 4, 5, 8])('impulse response is the triangle (r − |d|)/r² along time and across, also next to the edges (r = %s)', (r) => {
+    const ns = 31, nc = 21;
     const x = new Float64Array(nc * ns);
     x[10 * ns + 15] = 1;
     const s = new Float64Array(Math.max(triangleTimeScratchLength(ns, r), triangleAcrossScratchLength(nc, ns, r)));
@@ -29,6 +29,14 @@ describe('triangle smoothing (Claerbout 1992; Fomel 2007 shaping)', () => {
     for (let i = 0; i < ns; i++) expect(t[10 * ns + i]).toBeCloseTo(Math.max(0, r - Math.abs(i - 15)) / (r * r), 14);
     const a = triangleAcrossUnchecked(new Float64Array(x.length), x, nc, ns, r, s);
     for (let c = 0; c < nc; c++) expect(a[c * ns + 15]).toBeCloseTo(Math.max(0, r - Math.abs(c - 10)) / (r * r), 14);
+    // impulses at the first column / first sample: the part of the triangle inside the grid, in place
+    const e = new Float64Array(nc * ns);
+    e[0 * ns + 1] = 1;
+    e[1 * ns + 0] = 1;
+    triangleTimeUnchecked(e, e, nc, ns, r, s);
+    triangleAcrossUnchecked(e, e, nc, ns, r, s);
+    const w = (d: number) => Math.max(0, r - Math.abs(d)) / (r * r);
+    for (let c = 0; c < nc; c++) for (let t = 0; t < ns; t++) expect(e[c * ns + t]).toBeCloseTo(w(c) * w(t - 1) + w(c - 1) * w(t), 14);
   });
 
   it('radius 1 is the identity; out may alias the input; constants are kept away from the edges', () => {
