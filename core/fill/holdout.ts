@@ -2,8 +2,9 @@
  * The hold-out check that goes with every fill (methods.md §5, leave-out cross-validation): hide recorded
  * traces that look like the ones to fill, fill them with the same settings, and score the fill on the hidden
  * samples only (core/quality/snr.ts). Design rules, by what the plan fills:
- *   – a gap of G traces: a block of G recorded traces near it, with recorded traces on both sides
- *     (a margin of max(2, ⌈G/4⌉)), so the hidden block is an interior gap like the real one;
+ *   – a gap of G traces: a block of G recorded traces with recorded traces on both sides (at least
+ *     max(2, ⌈G/4⌉)), placed where the most recorded traces support it on its poorer side, so the hidden
+ *     block is an interior gap like the real one (narrower only when the gather has no room);
  *   – regular decimation by k: every k-th recorded trace (never the first or last), which leaves
  *     hidden traces 2k positions from their recorded neighbours: a harder problem than the real one, so the
  *     score leans pessimistic;
@@ -37,7 +38,13 @@ export function designHoldout(unknown: ArrayLike<number>, factor: number): Holdo
         let ok = true;
         for (let q = s - margin; q < s + width + margin && ok; q++) if (unknown[q]) ok = false;
         if (!ok) continue;
-        const d = Math.abs(s + (width - 1) / 2 - centre);
+        // Best supported place: the most recorded traces on its poorer side (ties: nearest the gap).
+        let l = s - 1;
+        while (l >= 0 && !unknown[l]) l--;
+        let r = s + width;
+        while (r < n && !unknown[r]) r++;
+        const support = Math.min(s - 1 - l, r - (s + width));
+        const d = -support * n + Math.abs(s + (width - 1) / 2 - centre);
         if (d < bestDist) {
           bestDist = d;
           best = s;

@@ -14,7 +14,7 @@ import type { SlopeOptions } from '../slope/index';
 import { solveGapsNet, type NetSolverOptions } from '../nn/solver';
 import { designHoldout, type HoldoutKind } from './holdout';
 import { LSQ_DEFAULTS, solveLeastSquares, type LsqSettings } from './lsq';
-import { countToFill, detectDecimationFactor, unknownMask, type FillPlan } from './plan';
+import { countToFill, unknownMask, type FillPlan } from './plan';
 import type { GapSolverFn, GapSolverInput, GapSolverResult, SolverName, SolverProgress } from './solver';
 
 export interface FillSettings {
@@ -90,24 +90,6 @@ export interface FillGatherResult {
   details: Record<string, number | string>;
 }
 
-/**
- * Decimation factor of the hold-out problem: hiding every k-th recorded trace of a decimated gather can leave a
- * regular grid of a larger factor, possibly except for the last recorded trace (off the coarser grid: the
- * estimator ignores it).
- */
-function holdoutFactor(unkH: Uint8Array, factor: number): number {
-  const live = Array.from(unkH, (v) => 1 - v);
-  let k = detectDecimationFactor(live);
-  if (k === 1) {
-    const last = live.lastIndexOf(1);
-    if (last > 0) {
-      live[last] = 0;
-      k = detectDecimationFactor(live);
-    }
-  }
-  return Math.max(factor, k);
-}
-
 function fullSettings(s: Partial<FillSettings>): FillSettings {
   return { ...FILL_DEFAULTS, ...s, lsq: { ...LSQ_DEFAULTS, ...(s.lsq ?? {}) }, net: { ...(s.net ?? {}) }, slope: { ...(s.slope ?? {}) } };
 }
@@ -178,9 +160,12 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   if (design.hidden.length) {
     report('holdout', 0.55 * span);
     // Hiding every k-th recorded trace of a decimated gather can leave a regular grid of a larger factor.
-    const factorH = plan.factor > 1 ? holdoutFactor(unkH, plan.factor) : 1;
     try {
-      const slopesH = input.slopePairs ?? estimate(dH, unkH, factorH);
+      // Block and single hold-outs re-estimate slopes without the hidden traces (no leak). A decimation hold-out
+      // reuses the slopes from all recorded traces: hiding every k-th trace doubles the spacing, and slopes
+      // estimated on that 2k grid are far more aliased than the real problem's (measured: 3–11 dB hold-out
+      // scores for 42–48 dB fills at k = 3, 4); the fill across the wider hole is still harder than the real one.
+      const slopesH = input.slopePairs ?? (design.kind === 'decimation' ? slopes1 : estimate(dH, unkH, plan.factor));
       fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6 * span, span);
       holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
     } catch (e) {

@@ -14,6 +14,8 @@ describe('hold-out design', () => {
     const lo = d.hidden[0], hi = d.hidden[3];
     expect(hi - lo).toBe(3);
     for (let q = lo - 2; q <= hi + 2; q++) expect(unknown[q]).toBe(0);
+    // Best supported: centred in the 18 recorded traces right of the gap (7 on each side).
+    expect(lo).toBe(21);
   });
 
   it('shrinks the block when the gather has no room for the full width', () => {
