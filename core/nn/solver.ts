@@ -31,7 +31,7 @@ export const NET_DEFAULTS: Required<Omit<NetSolverOptions, 'timeBudgetSeconds'>>
   features: 'dip',
   steps: 600,
   lambda: 'auto',
-  learningRate: 3e-3,
+  learningRate: 1e-2,
   learningRateFinalFraction: 0.1,
   warmupSteps: 50,
   priorWeight: 1,
