@@ -103,6 +103,30 @@ describe.each(['sin', 'tanh'] as Activation[])('network kernel, activation %s', 
       checkGradient(m, p, loss, g, label);
     });
 
+  // Dot-product test of the linearised network J: θ → (u at 6 points) against the reverse pass Jᵀ:
+  // <J δθ, r> = <δθ, Jᵀ r>, with J δθ by central differences along δθ (so the tolerance is the differencing one).
+  it('dot-product test: reverse pass is the adjoint of the linearised forward map', () => {
+    const m = smallModel(activation, 13);
+    const rng = new Rng(14);
+    const p = initNetParams(m, 15);
+    const s = createNetScratch(m);
+    const pts = Array.from({ length: 6 }, () => [2 * rng.uniform() - 1, 2 * rng.uniform() - 1]);
+    const dtheta = new Float64Array(m.nParams).map(() => rng.normal());
+    const r = pts.map(() => rng.normal());
+    const h = 1e-6;
+    const qp = p.map((v, i) => v + h * dtheta[i]);
+    const qm = p.map((v, i) => v - h * dtheta[i]);
+    let lhs = 0;
+    pts.forEach(([t, x], k) => (lhs += r[k] * (forwardValue(m, qp, s, t, x) - forwardValue(m, qm, s, t, x)) / (2 * h)));
+    const jtr = new Float64Array(m.nParams);
+    pts.forEach(([t, x], k) => {
+      forwardValue(m, p, s, t, x);
+      backwardValue(m, p, s, r[k], jtr);
+    });
+    const rhs = dtheta.reduce((a, v, i) => a + v * jtr[i], 0);
+    expect(Math.abs(lhs - rhs) / Math.max(Math.abs(lhs), Math.abs(rhs))).toBeLessThan(1e-7);
+  });
+
   it('value-only reverse pass', () => {
     const m = smallModel(activation, 8, 2);
     const p = initNetParams(m, 9);
