@@ -64,6 +64,7 @@ export function drawSection(ctx: CanvasRenderingContext2D, widthPx: number, heig
       rect.top, rect.left, rect.height, rect.width);
     ctx.restore();
   }
+  drawMissingHatch(ctx, rect, scene, image === null);
   const stats: DrawStats = { wiggleTraceStep: 0, strokes: 0 };
   if (scene.mode !== 'density') stats.wiggleTraceStep = drawWiggles(ctx, rect, scene);
   if (scene.strokes) stats.strokes = drawStrokes(ctx, rect, scene);
@@ -154,6 +155,36 @@ function drawStrokes(ctx: CanvasRenderingContext2D, rect: PlotRect, scene: Secti
   }
   ctx.setLineDash([]);
   return n;
+}
+
+/** Diagonal hatch over missing runs, in screen space: "nothing recorded here" at any zoom and in grey print. */
+function drawMissingHatch(ctx: CanvasRenderingContext2D, rect: PlotRect, scene: SectionScene, fillGround: boolean): void {
+  const w = scene.window;
+  const top = rect.top;
+  const bottom = rect.top + rect.height;
+  for (const [a, b] of runsOf(scene.status, [TraceStatus.missing])) {
+    const x0 = Math.max(rect.left, dataToScreen(w, rect, a, 0).x);
+    const x1 = Math.min(rect.left + rect.width, dataToScreen(w, rect, b + 1, 0).x);
+    if (x1 <= x0) continue;
+    ctx.save();
+    ctx.beginPath();
+    ctx.rect(x0, top, x1 - x0, bottom - top);
+    ctx.clip();
+    if (fillGround) {
+      ctx.fillStyle = '#f6e2c4';
+      ctx.fillRect(x0, top, x1 - x0, bottom - top);
+    }
+    ctx.strokeStyle = 'rgba(214,140,50,0.75)';
+    ctx.lineWidth = 1.5;
+    ctx.beginPath();
+    const h = bottom - top;
+    for (let x = x0 - h; x < x1; x += 9) {
+      ctx.moveTo(x, bottom);
+      ctx.lineTo(x + h, top);
+    }
+    ctx.stroke();
+    ctx.restore();
+  }
 }
 
 function drawFilledBrackets(ctx: CanvasRenderingContext2D, rect: PlotRect, scene: SectionScene): void {

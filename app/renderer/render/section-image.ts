@@ -33,8 +33,7 @@ export interface ImageInput {
 }
 
 const PAPER = packRgba(252, 251, 247, 255);
-const HATCH_A = packRgba(246, 226, 196, 255);
-const HATCH_B = packRgba(232, 180, 110, 255);
+const MISSING = packRgba(246, 226, 196, 255);
 const DEAD = packRgba(70, 72, 80, 255);
 
 /** Fills `out` (length nTraces·nSamples). @returns out */
@@ -50,8 +49,9 @@ export function buildSectionPixels(out: Uint32Array, input: ImageInput): Uint32A
     const st = status[x];
     const base = x * nSamples;
     if (st === TraceStatus.missing) {
-      // Diagonal hatch: reads as "nothing here" at any zoom and in grey print.
-      for (let t = 0; t < nSamples; t++) out[base + t] = ((t + 3 * x) % 8) < 3 ? HATCH_B : HATCH_A;
+      // Flat pale ground; the view hatches it in screen space (render/draw-section.ts), so the hatch keeps
+      // its spacing at every zoom.
+      out.fill(MISSING, base, base + nSamples);
       continue;
     }
     if (st === TraceStatus.dead) {
