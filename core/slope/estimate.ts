@@ -116,11 +116,24 @@ function resolveOptions(o: SlopeOptions): Resolved {
   return r;
 }
 
+/** Time-halved copies of one work gather, shared by the slope measure and the pyramid (levels[l]: 2^l × fewer). */
+interface Halvings {
+  readonly source: Float64Array;
+  readonly levels: { data: Float64Array; nSamples: number }[];
+}
+
 /** Low-pass and take every m-th sample (m a power of two) by cascaded half-band decimation (halve.ts). */
-function decimateTime(u: Float64Array, nTraces: number, nSamples: number, m: number): { data: Float64Array; nSamples: number } {
-  let cur = { data: u, nSamples };
-  for (let f = 1; f < m; f *= 2) cur = halveTime(cur.data, nTraces, cur.nSamples);
-  return cur;
+function decimateTime(h: Halvings, nTraces: number, m: number): { data: Float64Array; nSamples: number } {
+  const want = Math.round(Math.log2(m));
+  while (h.levels.length <= want) {
+    const prev = h.levels[h.levels.length - 1];
+    h.levels.push(halveTime(prev.data, nTraces, prev.nSamples));
+  }
+  return h.levels[want];
+}
+
+function halvingsOf(u: Float64Array, nSamples: number): Halvings {
+  return { source: u, levels: [{ data: u, nSamples }] };
 }
 
 /** Upsample a pair field in time by factor m (values × m: slopes scale with the time step). */
@@ -146,10 +159,11 @@ function pairLiveOf(traceLive: Uint8Array): Uint8Array {
 }
 
 /** Steepest slope (90th percentile of |σ| where the tensor is coherent), measured on a time-decimated copy. */
-export function measureSteepestSlope(u: Float64Array, nTraces: number, nSamples: number, pairLive: Uint8Array, radiusTimeSamples: number, radiusTraces: number): number {
+export function measureSteepestSlope(u: Float64Array, nTraces: number, nSamples: number, pairLive: Uint8Array, radiusTimeSamples: number, radiusTraces: number, halvings?: Halvings): number {
   let m = 8;
   while (m > 1 && nSamples / m < MIN_LEVEL_SAMPLES) m /= 2;
-  const lev = decimateTime(u, nTraces, nSamples, m);
+  const h = halvings && halvings.source === u ? halvings : halvingsOf(u, nSamples);
+  const lev = decimateTime(h, nTraces, m);
   const ws = createTensorWorkspace(nTraces, lev.nSamples, Math.max(4, Math.round(radiusTimeSamples / m)), Math.max(4, radiusTraces));
   const n = (nTraces - 1) * lev.nSamples;
   const s = new Float64Array(n), c = new Float64Array(n), e = new Float64Array(n);
@@ -179,12 +193,12 @@ interface WorkResult {
 
 function estimateOnWorkGrid(
   u: Float64Array, nTraces: number, nSamples: number, traceLive: Uint8Array, s: Resolved, levels: number, slopeBound: number,
-  observations: SlopeObservations | undefined, cancel: CancelToken | undefined,
+  observations: SlopeObservations | undefined, cancel: CancelToken | undefined, halvings?: Halvings,
 ): WorkResult {
   const pairLive = pairLiveOf(traceLive);
   const nPairs = nTraces - 1;
-  const pyramid: { data: Float64Array; nSamples: number }[] = [{ data: u, nSamples }];
-  for (let l = 1; l <= levels; l++) pyramid.push(halveTime(pyramid[l - 1].data, nTraces, pyramid[l - 1].nSamples));
+  const h = halvings && halvings.source === u ? halvings : halvingsOf(u, nSamples);
+  const pyramid = Array.from({ length: levels + 1 }, (_, l) => decimateTime(h, nTraces, 2 ** l));
   const top = pyramid[levels];
   const mTop = 2 ** levels;
   const rtTop = Math.max(2, Math.round(s.radiusTimeSamples / mTop));
@@ -329,13 +343,15 @@ export function estimateSlopes(
 
   const maxOpt = options.maxSlopeSamplesPerTrace ?? 'auto';
   if (maxOpt !== 'auto' && !(maxOpt >= 0)) throw badOption('maxSlopeSamplesPerTrace', maxOpt, '≥ 0 or auto');
-  const maxSlope = maxOpt === 'auto' ? measureSteepestSlope(work, nWork, nSamples, pairLive, s.radiusTimeSamples, s.radiusTraces) : maxOpt;
+  let halvings = halvingsOf(work, nSamples);
+  const maxSlope = maxOpt === 'auto' ? measureSteepestSlope(work, nWork, nSamples, pairLive, s.radiusTimeSamples, s.radiusTraces, halvings) : maxOpt;
   // Decimated data: also below the alias frequency 1/(2|σ_c,max|) of the steepest coarse-grid slope (methods.md §2.6).
   if (lpOpt === 'auto' && grid && maxSlope > 0) {
     const alias = 0.9 / (2 * maxSlope);
     if (alias < cutoff) {
       cutoff = alias;
       lowpass(cutoff);
+      halvings = halvingsOf(work, nSamples); // the low-pass may have worked in place
     }
   }
   throwIfCancelled(cancel);
@@ -351,13 +367,13 @@ export function estimateSlopes(
     editRasterValue = new Float64Array(nFinePairs);
     editRasterWeight = new Float64Array(nFinePairs);
   }
-  let res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, undefined, cancel);
+  let res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, undefined, cancel, halvings);
   if (editRasterValue && editRasterWeight) {
     const fine = grid ? coarsePairsToFinePairs(new Float64Array(nFinePairs), res.sigma, grid, nTraces, nSamples, 1 / k) : res.sigma.slice();
     applyDipEdits(fine, editRasterWeight, nTraces, nSamples, edits);
     editRasterValue.set(fine);
     observations = observationsOnWorkGrid(editRasterValue, editRasterWeight, grid, nTraces, nWork, nSamples);
-    res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, observations, cancel);
+    res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, observations, cancel, halvings);
   }
   const gapOpt = options.gapSlopes ?? 'along-events';
   if (gapOpt !== 'along-events' && gapOpt !== 'prior') throw badOption('gapSlopes', gapOpt, 'along-events or prior');
