@@ -35,7 +35,7 @@ export const SLOPE_DEFAULTS = {
   radiusTimeSamples: 6,
   radiusTraces: 3,
   order: 1,
-  outerIterations: 3,
+  outerIterations: 2,
   innerIterations: 4,
   stepLimit: 1,
 } as const;
@@ -243,8 +243,7 @@ function estimateOnWorkGrid(
       }
     }
     const ws = createGaussNewtonWorkspace(nTraces, lev.nSamples, rt, s.radiusTraces);
-    // Coarse levels only start the finer ones: one Gauss-Newton step fewer there.
-    const outer = l === 0 ? s.outerIterations : Math.max(1, s.outerIterations - 1);
+    const outer = s.outerIterations;
     const rep = gaussNewtonSlopes(ws, sigma, lev.data, pairLive, prior, shift, { ...s, radiusTimeSamples: rt, outerIterations: outer }, l === 0 ? observations : undefined, cancel);
     // Incoherent zones may wander: keep every slope within the planned bound.
     const b = slopeBound / m;

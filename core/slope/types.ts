@@ -17,7 +17,7 @@ export interface SlopeOptions {
   readonly radiusTraces?: number;
   /** Destruction filter: 1 = 3-point (default), 2 = 5-point. */
   readonly order?: PwdOrder;
-  /** Gauss-Newton steps per resolution level (default 3). */
+  /** Gauss-Newton steps per resolution level (default 2; each coarse-to-fine level adds its own). */
   readonly outerIterations?: number;
   /** Conjugate-gradient steps per smooth division (default 4; warm-started across Gauss-Newton steps). */
   readonly innerIterations?: number;

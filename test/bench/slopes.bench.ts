@@ -6,6 +6,7 @@
 import { spawnSync } from 'node:child_process';
 import { cpus, loadavg } from 'node:os';
 import { Rng } from '../../core/rng';
+import { createRealFftPlan } from '../../core/fft/real-fft';
 import { estimateSlopes } from '../../core/slope/estimate';
 import type { SlopeOptions } from '../../core/slope/types';
 import { addHyperbola, addPlaneWave, hyperbolaSlopeField, hyperbolaTime, type HyperbolaSpec } from '../../core/synth/events';
@@ -51,7 +52,16 @@ if (process.argv[2] === '--child') {
   const out: string[] = [];
   const say = (s = '') => out.push(s);
   const [l1] = loadavg();
-  say(`Slope estimation with default settings, one core (${cpus().length} × ${cpus()[0]?.model ?? '?'}, load average ${l1.toFixed(1)} at start; Node ${process.version}). Median of 5 runs after a warm-up.`);
+  // Calibration: a 1024-point fft.js real transform took 7–10 µs on a quiet machine of this kind
+  // (/work/shared/docs/stack.md §1c); the ratio tells how much the current load slows everything down.
+  const plan = createRealFftPlan(1024);
+  const xin = new Float64Array(1024).map((_, i) => Math.sin(0.1 * i)), xout = new Float64Array(2048);
+  for (let k = 0; k < 500; k++) plan.impl.realTransform(xout, xin);
+  const c0 = process.cpuUsage();
+  for (let k = 0; k < 4000; k++) plan.impl.realTransform(xout, xin);
+  const cc = process.cpuUsage(c0);
+  const fftUs = (cc.user + cc.system) / 4000;
+  say(`Slope estimation with default settings, one core (${cpus().length} × ${cpus()[0]?.model ?? '?'}, load average ${l1.toFixed(1)} at start; Node ${process.version}). Median of 5 runs after a warm-up. Calibration: 1024-point fft.js real transform ${fftUs.toFixed(1)} µs CPU here (7–10 µs on a quiet machine, stack.md §1c).`);
   say('');
   say('| gather (samples × traces) | method | wall median | wall min | CPU median | peak extra memory |');
   say('|---|---|---|---|---|---|');
