@@ -11,7 +11,7 @@ const TAPS: Float64Array = (() => {
   const h = new Float64Array(2 * HALF + 1);
   let s = 0;
   for (let k = -HALF; k <= HALF; k++) {
-    const sinc = k === 0 ? 0.5 : Math.sin((Math.PI * k) / 2) / (Math.PI * k);
+    const sinc = k === 0 ? 0.5 : k % 2 === 0 ? 0 : Math.sin((Math.PI * k) / 2) / (Math.PI * k);
     const w = 0.42 + 0.5 * Math.cos((Math.PI * k) / (HALF + 1)) + 0.08 * Math.cos((2 * Math.PI * k) / (HALF + 1));
     h[k + HALF] = sinc * w;
     s += sinc * w;
