@@ -80,6 +80,20 @@ describe('network gap solver', () => {
     expect(r.data.every((v) => Number.isFinite(v))).toBe(true);
   });
 
+  it('fills gaps at both edges and several runs, each in its own windows, without touching live traces', async () => {
+    const { input } = planeWaveGap(30, 40, 0, 3);
+    const unknown = new Uint8Array(30);
+    for (const x of [0, 1, 2, 10, 11, 20, 28, 29]) unknown[x] = 1;
+    const data = Float64Array.from(input.data).map((v) => (Number.isNaN(v) ? 0 : v));
+    const r = await solveGapsNet({ ...input, data, unknownTraces: unknown }, { ...FAST, steps: 10 });
+    expect(r.details.windows).toBe(4);
+    expect(r.data.every((v) => Number.isFinite(v))).toBe(true);
+    for (let x = 0; x < 30; x++) {
+      const same = r.data.subarray(x * 40, (x + 1) * 40).every((v, t) => v === data[x * 40 + t]);
+      if (!unknown[x]) expect(same).toBe(true);
+    }
+  });
+
   it('refuses bad settings and bad input with stable codes', async () => {
     const { input } = planeWaveGap(12, 20, 4, 3);
     const code = async (p: Promise<unknown>) => {
