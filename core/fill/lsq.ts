@@ -44,6 +44,54 @@ export interface CgStats {
   residualRatio: number;
 }
 
+/**
+ * Records, for a hold-out fill, the error energy on the hidden traces after every CG iteration (iteration 0 is
+ * the painted start), so the hold-out can choose how many iterations the real fill gets (methods.md §3.1:
+ * stop when the leave-out SNR stops improving).
+ */
+export class IterationTracker {
+  private readonly perBlock: Float64Array[] = [];
+  constructor(readonly truth: Float64Array, readonly hidden: Uint8Array) {}
+
+  add(errors: Float64Array): void {
+    this.perBlock.push(errors);
+  }
+
+  /** Error energy on all hidden traces after n iterations per block (blocks that stopped keep their last value). */
+  errorAt(n: number): number {
+    let e = 0;
+    for (const b of this.perBlock) e += b[Math.min(n, b.length - 1)];
+    return e;
+  }
+
+  /** The iteration count with the least error, and that error (earliest on ties). */
+  best(maxIterations: number): { iterations: number; error: number } {
+    let longest = 0;
+    for (const b of this.perBlock) longest = Math.max(longest, b.length - 1);
+    let bi = 0;
+    let be = this.errorAt(0);
+    for (let n = 1; n <= Math.min(maxIterations, longest); n++) {
+      const e = this.errorAt(n);
+      if (e < be) [bi, be] = [n, e];
+    }
+    return { iterations: bi, error: be };
+  }
+}
+
+function hiddenError(u: Float64Array, x: Float64Array, blk: BlockRange, nS: number, tr: IterationTracker): number {
+  let e = 0;
+  for (let tIdx = blk.a; tIdx <= blk.b; tIdx++) {
+    if (!tr.hidden[tIdx]) continue;
+    const off = tIdx * nS;
+    const lo = (tIdx - blk.a) * nS;
+    for (let t = 0; t < nS; t++) {
+      const d = u[off + t] + x[lo + t] - tr.truth[off + t];
+      e += d * d;
+    }
+  }
+  return e;
+}
+
 /** Scratch for one block, sized for the largest block of a gather. */
 interface Scratch {
   x: Float64Array;
@@ -69,7 +117,7 @@ function dot(a: Float64Array, b: Float64Array, n: number): number {
  * CGLS on one block: updates traces blk.a..blk.b of u in place so that ||C u|| on the block's pairs is least.
  * Unchecked.
  */
-export function solveBlockCgls(plan: PwdPlan, u: Float64Array, blk: BlockRange, settings: LsqSettings, sc: Scratch, cancel?: { readonly cancelled: boolean }): CgStats {
+export function solveBlockCgls(plan: PwdPlan, u: Float64Array, blk: BlockRange, settings: LsqSettings, sc: Scratch, cancel?: { readonly cancelled: boolean }, tracker?: IterationTracker): CgStats {
   const nS = plan.nSamples;
   const nv = (blk.b - blk.a + 1) * nS;
   const nr = (blk.p1 - blk.p0) * nS;
@@ -84,6 +132,9 @@ export function solveBlockCgls(plan: PwdPlan, u: Float64Array, blk: BlockRange, 
   const eps2 = settings.damping * settings.damping;
   p.set(s.subarray(0, nv));
   const history: number[] = [rr0];
+  let tracks = false;
+  for (let q = blk.a; q <= blk.b && tracker; q++) if (tracker.hidden[q]) tracks = true;
+  const errs: number[] = tracks ? [hiddenError(u, x, blk, nS, tracker!)] : [];
   let it = 0;
   let converged = gamma0 === 0;
   let rr = rr0;
@@ -101,6 +152,7 @@ export function solveBlockCgls(plan: PwdPlan, u: Float64Array, blk: BlockRange, 
     it++;
     rr = dot(r, r, nr) + eps2 * dot(x, x, nv);
     history.push(rr);
+    if (tracks) errs.push(hiddenError(u, x, blk, nS, tracker!));
     if (gammaNew <= settings.tolerance * settings.tolerance * gamma0) {
       converged = true;
       break;
@@ -115,11 +167,15 @@ export function solveBlockCgls(plan: PwdPlan, u: Float64Array, blk: BlockRange, 
   }
   const off = blk.a * nS;
   for (let i = 0; i < nv; i++) u[off + i] += x[i];
+  if (tracks) tracker!.add(Float64Array.from(errs));
   return { iterations: it, converged, residualRatio: rr0 > 0 ? rr / rr0 : 0 };
 }
 
-/** Fills every block of unknown traces. Meets the solver contract of core/fill/solver.ts. */
-export function solveLeastSquares(input: GapSolverInput, settings: Partial<LsqSettings> = {}): GapSolverResult {
+/**
+ * Fills every block of unknown traces. Meets the solver contract of core/fill/solver.ts.
+ * @param tracker  hold-out fills only: records the error on hidden traces per iteration
+ */
+export function solveLeastSquares(input: GapSolverInput, settings: Partial<LsqSettings> = {}, tracker?: IterationTracker): GapSolverResult {
   const start = Date.now();
   const st: LsqSettings = { ...LSQ_DEFAULTS, ...settings };
   const { nTraces, nSamples, unknownTraces, slopePairs } = input;
@@ -145,7 +201,7 @@ export function solveLeastSquares(input: GapSolverInput, settings: Partial<LsqSe
     throwIfCancelled(input.cancel);
     if (st.paint) paintBlock(u, nTraces, nSamples, slopePairs, a, b);
     else u.fill(0, a * nSamples, (b + 1) * nSamples);
-    const stats = solveBlockCgls(plan, u, blockRange(a, b, nTraces), st, sc, input.cancel);
+    const stats = solveBlockCgls(plan, u, blockRange(a, b, nTraces), st, sc, input.cancel, tracker);
     total += stats.iterations;
     most = Math.max(most, stats.iterations);
     allConverged &&= stats.converged;

@@ -13,7 +13,8 @@ import { clipWildSlopes, slopeEstimator, slopesForFill, type SlopeEstimator } fr
 import type { SlopeOptions } from '../slope/index';
 import { solveGapsNet, type NetSolverOptions } from '../nn/solver';
 import { designHoldout, type HoldoutKind } from './holdout';
-import { LSQ_DEFAULTS, solveLeastSquares, type LsqSettings } from './lsq';
+import { IterationTracker, LSQ_DEFAULTS, solveLeastSquares, type LsqSettings } from './lsq';
+import type { PwdOrder } from '../pwd/maxflat';
 import { countToFill, unknownMask, type FillPlan } from './plan';
 import type { GapSolverFn, GapSolverInput, GapSolverResult, SolverName, SolverProgress } from './solver';
 
@@ -28,6 +29,8 @@ export interface FillSettings {
   secondPass: boolean;
   /** Slope estimation options (core/slope), dip edits included; plain data as saved in recipes. */
   slope: SlopeOptions;
+  /** Destructor orders the hold-out chooses from for the least-squares fill (one entry: no choice). */
+  orders: PwdOrder[];
 }
 
 export const FILL_DEFAULTS: Readonly<FillSettings> = {
@@ -37,6 +40,7 @@ export const FILL_DEFAULTS: Readonly<FillSettings> = {
   holdout: true,
   secondPass: false,
   slope: {},
+  orders: [1, 2],
 };
 
 export type FillStage = 'slopes' | 'fill' | 'holdout' | 'second-pass';
@@ -91,7 +95,7 @@ export interface FillGatherResult {
 }
 
 function fullSettings(s: Partial<FillSettings>): FillSettings {
-  return { ...FILL_DEFAULTS, ...s, lsq: { ...LSQ_DEFAULTS, ...(s.lsq ?? {}) }, net: { ...(s.net ?? {}) }, slope: { ...(s.slope ?? {}) } };
+  return { ...FILL_DEFAULTS, ...s, lsq: { ...LSQ_DEFAULTS, ...(s.lsq ?? {}) }, net: { ...(s.net ?? {}) }, slope: { ...(s.slope ?? {}) }, orders: [...(s.orders ?? FILL_DEFAULTS.orders)] };
 }
 
 /** Built-in solvers: least squares (core/fill/lsq.ts) and the coordinate network (core/nn/solver.ts, in this thread). */
@@ -141,61 +145,82 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
     };
     return await solve(si, solverSettings);
   };
-  const passes = settings.secondPass ? 2 : 1;
-  const span = 1 / passes;
 
-  // First pass: slopes, fill, hold-out.
+  // Slopes for the fill and for the hold-out problem.
   report('slopes', 0);
   const slopes1 = input.slopePairs ?? estimate(d, unknown, plan.factor);
   throwIfCancelled(cancel);
-  const fill1 = await runSolver(d, unknown, slopes1, 'fill', 0.1 * span, 0.55 * span);
   const design = settings.holdout ? designHoldout(unknown, plan.factor) : { kind: 'none' as HoldoutKind, hidden: [] };
   const unkH = Uint8Array.from(unknown);
   for (const h of design.hidden) unkH[h] = 1;
   const dH = Float64Array.from(d);
   for (const h of design.hidden) dH.fill(0, h * nSamples, (h + 1) * nSamples);
-  let holdoutSnr = Number.NaN;
-  let fillH: GapSolverResult | null = null;
+  let slopesH: Float64Array | null = null;
   let holdoutProblem = '';
   if (design.hidden.length) {
-    report('holdout', 0.55 * span);
-    // Hiding every k-th recorded trace of a decimated gather can leave a regular grid of a larger factor.
     try {
       // Block and single hold-outs re-estimate slopes without the hidden traces (no leak). A decimation hold-out
       // reuses the slopes from all recorded traces: hiding every k-th trace doubles the spacing, and slopes
       // estimated on that 2k grid are far more aliased than the real problem's (measured: 3–11 dB hold-out
       // scores for 42–48 dB fills at k = 3, 4); the fill across the wider hole is still harder than the real one.
-      const slopesH = input.slopePairs ?? (design.kind === 'decimation' ? slopes1 : estimate(dH, unkH, plan.factor));
-      fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6 * span, span);
-      holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
+      slopesH = input.slopePairs ?? (design.kind === 'decimation' ? slopes1 : estimate(dH, unkH, plan.factor));
     } catch (e) {
       // The hidden traces can leave too little to estimate from; the fill itself stands, without a score.
       if (!isInputFileError(e)) throw e;
       holdoutProblem = e.problem.code;
     }
   }
-
-  let chosen = fill1;
+  const details: Record<string, number | string> = { holdoutHidden: design.hidden.length, slopeChoice: input.slopePairs ? 'given' : 'estimated' };
+  let chosen: GapSolverResult;
   let slopes = slopes1;
-  let second: 'off' | 'kept' | 'rejected' = 'off';
-  const details: Record<string, number | string> = { ...fill1.details, holdoutHidden: design.hidden.length, slopeChoice: input.slopePairs ? 'given' : 'estimated' };
-  if (!input.slopePairs && fillH && settings.solver === 'lsq') {
-    // Cross-validated guard (methods.md §5): where the estimated slopes are poor (incoherent or strongly aliased
-    // data), flat slopes, which make the fill a smooth blend of the neighbours, may score better on the hold-out.
-    // Keep whichever the hold-out prefers.
-    const flat = new Float64Array(slopes1.length);
-    const flatH = await runSolver(dH, unkH, flat, 'holdout', 0.9 * span, span);
-    const snrFlat = snrDb(d, flatH.data, design.hidden, nSamples);
-    details.estimatedSlopesHoldoutSnrDb = holdoutSnr;
-    details.flatSlopesHoldoutSnrDb = snrFlat;
-    if (snrFlat > holdoutSnr) {
-      chosen = await runSolver(d, unknown, flat, 'fill', 0.9 * span, span);
-      slopes = flat;
-      holdoutSnr = snrFlat;
-      fillH = flatH;
-      details.slopeChoice = 'flat';
+  let holdoutSnr = Number.NaN;
+  let fillH: GapSolverResult | null = null;
+  if (settings.solver === 'lsq' && slopesH) {
+    // Least squares tuned by the hold-out (methods.md §5, leave-out validation; §3.1, stop when the leave-out
+    // SNR stops improving): destructor order, estimated or flat slopes (flat wins where the estimate is poor,
+    // e.g. incoherent or strongly aliased data: the fill is then a smooth blend of the neighbours), and the CG
+    // iteration count (0 = the painted start alone). The score reported is the chosen candidate's.
+    const hiddenMask = new Uint8Array(nTraces);
+    for (const h of design.hidden) hiddenMask[h] = 1;
+    let energy = 0;
+    for (const h of design.hidden) for (let t = 0; t < nSamples; t++) energy += d[h * nSamples + t] ** 2;
+    const sets = [{ name: input.slopePairs ? 'given' : 'estimated', main: slopes1, hold: slopesH }];
+    if (!input.slopePairs) sets.push({ name: 'flat', main: new Float64Array(slopes1.length), hold: new Float64Array(slopes1.length) });
+    const orders = settings.orders.length ? settings.orders : [settings.lsq.order];
+    let best: { name: string; main: Float64Array; order: PwdOrder; iterations: number; snr: number; res: GapSolverResult } | null = null;
+    let n = 0;
+    for (const set of sets) {
+      for (const order of orders) {
+        throwIfCancelled(cancel);
+        const tracker = new IterationTracker(d, hiddenMask);
+        const res = solveLeastSquares({ data: dH, nTraces, nSamples, unknownTraces: unkH, slopePairs: set.hold, cancel }, { ...settings.lsq, order }, tracker);
+        const b = tracker.best(settings.lsq.maxIterations);
+        const snr = energy === 0 ? Number.NaN : b.error === 0 ? Number.POSITIVE_INFINITY : 10 * Math.log10(energy / b.error);
+        details[`holdoutSnrDb_${set.name}_order${order}`] = snr;
+        if (!best || snr > best.snr) best = { name: set.name, main: set.main, order, iterations: b.iterations, snr, res };
+        report('holdout', 0.2 + (0.6 * ++n) / (sets.length * orders.length));
+      }
+    }
+    const pick = best!;
+    chosen = solveLeastSquares(
+      { data: d, nTraces, nSamples, unknownTraces: unknown, slopePairs: pick.main, cancel, onProgress: (p) => report('fill', 0.8 + (0.2 * p.step) / Math.max(1, p.totalSteps), p) },
+      { ...settings.lsq, order: pick.order, maxIterations: pick.iterations },
+    );
+    slopes = pick.main;
+    holdoutSnr = pick.snr;
+    fillH = pick.res;
+    Object.assign(details, chosen.details, { slopeChoice: pick.name, order: pick.order, iterationsChosenByHoldout: pick.iterations });
+  } else {
+    chosen = await runSolver(d, unknown, slopes1, 'fill', 0.1, 0.55);
+    Object.assign(details, chosen.details);
+    if (slopesH) {
+      report('holdout', 0.55);
+      fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6, 1);
+      holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
     }
   }
+  const fill1 = chosen;
+  let second: 'off' | 'kept' | 'rejected' = 'off';
   if (settings.secondPass && !input.slopePairs) {
     // Re-estimate on the filled gather (now without holes, so on the fine grid) and fill again.
     report('second-pass', 0.5);

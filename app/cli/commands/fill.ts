@@ -41,7 +41,7 @@ export const fillSpec: CommandSpec = {
     { name: 'jobs', kind: 'integer', meta: 'N', help: 'worker threads (default: all cores)' },
     { name: 'recipe', kind: 'string', meta: 'FILE', help: 'settings and dip edits saved by Dipweave; options given here override it' },
     { name: 'shard', kind: 'string', meta: 'I/N', help: 'fill only the I-th of N equal runs of gathers (1-based), e.g. from a cluster job array; merge with `dipweave stitch`' },
-    { name: 'order', kind: 'integer', choices: ['1', '2'], meta: '1|2', help: 'destructor order for the least-squares fill (default 2)' },
+    { name: 'order', kind: 'integer', choices: ['1', '2'], meta: '1|2', help: 'destructor order for the least-squares fill (default: the hold-out check chooses 1 or 2)' },
     { name: 'second-pass', kind: 'flag', help: 're-estimate slopes on the filled gather and fill again; kept only where the hold-out score improves' },
     { name: 'width', kind: 'integer', meta: 'N', help: 'network: units per hidden layer' },
     { name: 'depth', kind: 'integer', meta: 'N', help: 'network: hidden layers' },
@@ -127,8 +127,14 @@ export function settingsFrom(recipe: Recipe | undefined, o: Record<string, strin
     net.lambda = v;
   }
   const lsq = { ...FILL_DEFAULTS.lsq, ...(r.lsq ?? {}) };
-  if (o.order !== undefined) lsq.order = Number(o.order) as 1 | 2;
+  let orders = [...FILL_DEFAULTS.orders];
+  if (r.lsq?.order !== undefined) orders = [r.lsq.order];
+  if (o.order !== undefined) {
+    lsq.order = Number(o.order) as 1 | 2;
+    orders = [lsq.order];
+  }
   return {
+    orders,
     solver: (o.solver as SolverName | undefined) ?? r.solver ?? 'lsq',
     lsq,
     net,
