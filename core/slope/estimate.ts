@@ -215,6 +215,8 @@ function estimateOnWorkGrid(
   let residualStart = NaN, residualEnd = NaN;
   let shift: Int32Array | null = null;
   let sigma = prior;
+  // One workspace at the finest size; coarser levels use views into it.
+  const finest = levels > 0 ? createGaussNewtonWorkspace(nTraces, nSamples, Math.max(2, s.radiusTimeSamples), s.radiusTraces) : undefined;
   for (let l = levels; l >= 0; l--) {
     const lev = pyramid[l];
     const m = 2 ** l;
@@ -242,7 +244,7 @@ function estimateOnWorkGrid(
         shift[i] = Math.round(prior[i]);
       }
     }
-    const ws = createGaussNewtonWorkspace(nTraces, lev.nSamples, rt, s.radiusTraces);
+    const ws = createGaussNewtonWorkspace(nTraces, lev.nSamples, rt, s.radiusTraces, finest);
     const outer = s.outerIterations;
     const rep = gaussNewtonSlopes(ws, sigma, lev.data, pairLive, prior, shift, { ...s, radiusTimeSamples: rt, outerIterations: outer }, l === 0 ? observations : undefined, cancel);
     // Incoherent zones may wander: keep every slope within the planned bound.

@@ -12,8 +12,8 @@
 import type { PwdOrder } from '../pwd/maxflat';
 import { throwIfCancelled, type CancelToken } from '../problems';
 import { destructionResidualAndSlopeDerivativeUnchecked, destructionSideEnergyUnchecked } from './destruction';
-import { createSmoothDivideWorkspace, smoothDivideUnchecked, type SmoothDivideWorkspace } from './smooth-divide';
-import { createTriangle2D, triangle2DApply } from './triangle';
+import { smoothDivideUnchecked, type SmoothDivideWorkspace } from './smooth-divide';
+import { createTriangle2D, triangle2DApply, type Triangle2D } from './triangle';
 
 export interface GaussNewtonSettings {
   readonly order: PwdOrder;
@@ -44,14 +44,25 @@ export interface GaussNewtonWorkspace {
   readonly divide: SmoothDivideWorkspace;
 }
 
-export function createGaussNewtonWorkspace(nTraces: number, nSamples: number, radiusTimeSamples: number, radiusTraces: number): GaussNewtonWorkspace {
+/**
+ * Allocates the workspace, or carves it out of a larger one (`reuse`, e.g. the finest level's) so coarse-to-fine
+ * levels share memory: views only, no copies.
+ */
+export function createGaussNewtonWorkspace(nTraces: number, nSamples: number, radiusTimeSamples: number, radiusTraces: number, reuse?: GaussNewtonWorkspace): GaussNewtonWorkspace {
   const n = (nTraces - 1) * nSamples;
-  const tri = createTriangle2D(nTraces - 1, nSamples, radiusTimeSamples, radiusTraces);
+  const take = (a: Float64Array | undefined): Float64Array => (a && a.length >= n ? new Float64Array(a.buffer, a.byteOffset, n) : new Float64Array(n));
+  const len = Math.max(nSamples + radiusTimeSamples, (nTraces - 1 + radiusTraces) * nSamples);
+  const old = reuse?.divide.smoother.scratch;
+  const tri: Triangle2D = {
+    nCols: nTraces - 1, nSamples, radiusTime: radiusTimeSamples, radiusAcross: radiusTraces,
+    scratch: old && old.length >= len ? old : createTriangle2D(nTraces - 1, nSamples, radiusTimeSamples, radiusTraces).scratch,
+  };
+  const d = reuse?.divide;
   return {
     nTraces, nSamples,
-    r: new Float64Array(n), g: new Float64Array(n), w: new Float64Array(n),
-    num: new Float64Array(n), den: new Float64Array(n), delta: new Float64Array(n),
-    divide: createSmoothDivideWorkspace(tri),
+    r: take(reuse?.r), g: take(reuse?.g), w: take(reuse?.w),
+    num: take(reuse?.num), den: take(reuse?.den), delta: take(reuse?.delta),
+    divide: { smoother: tri, p: take(d?.p), resid: take(d?.resid), dir: take(d?.dir), aDir: take(d?.aDir), tmp: take(d?.tmp) },
   };
 }
 
