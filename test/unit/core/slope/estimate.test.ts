@@ -1,3 +1,8 @@
+/**
+ * estimateSlopes against analytic gathers with known slopes: Ricker plane waves u = f(t − σx) and NMO hyperbolas
+ * t = sqrt(t0² + x²/v²) with σ = x/(v²t) (methods.md §6.3, §6.6; core/synth/events.ts). Tolerances from issue 3
+ * (median < 0.05 away from edges) and methods.md §2.2/§6.4 where stated beside each check.
+ */
 import { describe, expect, it } from 'vitest';
 import { estimateSlopes, withDipEdits } from '../../../../core/slope/estimate';
 import { isInputFileError } from '../../../../core/problems';
@@ -68,6 +73,8 @@ describe('estimateSlopes on analytic gathers', () => {
     expect(median(lateRaw)).toBeGreaterThan(10 * median(late));
   });
 
+  // A plane wave is destroyed exactly (confidence → 1); independent noise traces cannot be predicted from each
+  // other, so the residual is as large as the filtered traces (confidence → 0) (arithmetic of the normalisation).
   it('confidence is high on coherent events and low on incoherent noise', () => {
     const nT = 40, nS = 300;
     const coherent = estimateSlopes(planeWaveGather(nT, nS, 0.7, 0.08), nT, nS, allLive(nT));
