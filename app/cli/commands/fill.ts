@@ -266,7 +266,13 @@ async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
       const edits = editsForGather(recipe, p.gather.keyValue);
       const s: Partial<FillSettings> = edits.length ? { ...settings, slope: { ...settings.slope, edits } } : settings;
       try {
-        const result = await pool!.run({ data: gatherOnGrid(p.gather.data, p.geometry, nS), nTraces: p.geometry.gridCount, nSamples: nS, plan: p.plan, settings: s, slopePairs });
+        let lastLine = Date.now();
+        const result = await pool!.run({ data: gatherOnGrid(p.gather.data, p.geometry, nS), nTraces: p.geometry.gridCount, nSamples: nS, plan: p.plan, settings: s, slopePairs }, (stage, fraction) => {
+          // Long gathers (the network solver) say where they are every few seconds.
+          if (Date.now() - lastLine < 5000) return;
+          lastLine = Date.now();
+          ctx.stderr(`  … gather ${p.gather.keyValue}: ${stage} ${(100 * fraction).toFixed(0)} %\n`);
+        });
         return { p, result };
       } catch (e) {
         if (!isInputFileError(e)) throw e;

@@ -93,3 +93,56 @@ describe('least-squares fill with exact slopes (analytic truth, core/synth/event
     expect(r.iterations).toBe(0);
   });
 });
+
+describe('least-squares objective and the hold-out iteration tracker', () => {
+  // Finite-difference gradient check of J(x) = ||A x − b||² + ε²||x||² against 2(Aᵀ(Ax − b) + ε²x), the
+  // gradient CGLS follows (A = masked destructor on one block).
+  it('the gradient from the adjoint matches central differences', async () => {
+    const { blockAdjoint, blockApply, blockRange } = await import('../../../../core/fill/masked-operator');
+    const { buildPwdPlan } = await import('../../../../core/pwd/operator');
+    const { Rng } = await import('../../../../core/rng');
+    const rng = new Rng(21);
+    const nT = 7, nS = 30, eps = 0.01;
+    const sigma = new Float64Array((nT - 1) * nS).map(() => (rng.uniform() - 0.5) * 5);
+    const plan = buildPwdPlan(sigma, nT, nS, { order: 2, split: true });
+    const blk = blockRange(2, 4, nT);
+    const nr = (blk.p1 - blk.p0) * nS, nv = 3 * nS;
+    const b = new Float64Array(nr).map(() => rng.normal());
+    const x = new Float64Array(nv).map(() => rng.normal());
+    const J = (v: Float64Array) => {
+      const r = blockApply(plan, new Float64Array(nr), v, blk);
+      let s = 0;
+      for (let i = 0; i < nr; i++) s += (r[i] - b[i]) ** 2;
+      for (let i = 0; i < nv; i++) s += eps * eps * v[i] * v[i];
+      return s;
+    };
+    const res = blockApply(plan, new Float64Array(nr), x, blk).map((v, i) => v - b[i]);
+    const g = blockAdjoint(plan, new Float64Array(nv), res, blk).map((v, i) => 2 * (v + eps * eps * x[i]));
+    const h = 1e-6;
+    for (const i of [0, 17, 45, 61, 89]) {
+      const xp = x.slice(), xm = x.slice();
+      xp[i] += h;
+      xm[i] -= h;
+      const fd = (J(xp) - J(xm)) / (2 * h);
+      expect(Math.abs(fd - g[i]) / Math.max(1, Math.abs(g[i]))).toBeLessThan(1e-6);
+    }
+  });
+
+  it('the tracker records the hidden-trace error per iteration and picks the least', async () => {
+    const { IterationTracker } = await import('../../../../core/fill/lsq');
+    const { u, slopes } = hyp();
+    const gap = centredGap(8);
+    const d = u.slice();
+    d.fill(0, 26 * nS, 34 * nS);
+    const hidden = new Uint8Array(nT).fill(1, 26, 34);
+    const tr = new IterationTracker(u, hidden);
+    const r = solveLeastSquares({ data: d, nTraces: nT, nSamples: nS, unknownTraces: gap, slopePairs: slopes }, {}, tr);
+    const best = tr.best(1000);
+    // With exact slopes the error keeps falling, so the best count is the last one, and it equals the final fill's error.
+    let e = 0;
+    for (let x = 26; x < 34; x++) for (let t = 0; t < nS; t++) e += (r.data[x * nS + t] - u[x * nS + t]) ** 2;
+    expect(best.error).toBeLessThanOrEqual(tr.errorAt(0));
+    expect(tr.errorAt(r.iterations)).toBeCloseTo(e, 10);
+    expect(best.error).toBeLessThanOrEqual(e * (1 + 1e-12));
+  });
+});

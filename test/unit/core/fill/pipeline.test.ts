@@ -58,6 +58,11 @@ describe('fillGather', () => {
     expect(r.holdoutTraces.every((h) => present[h] === 1)).toBe(true);
     expect(r.holdoutSnrDb).toBeGreaterThan(20);
     expect(r.missingCount).toBe(16);
+    // The hold-out chose among the orders (slopes were given, so no flat candidate) and reports the best score.
+    const scores = Object.entries(r.details).filter(([k]) => k.startsWith('holdoutSnrDb_')).map(([, v]) => Number(v));
+    expect(Object.keys(r.details).filter((k) => k.startsWith('holdoutSnrDb_')).sort()).toEqual(['holdoutSnrDb_given_order1', 'holdoutSnrDb_given_order2']);
+    expect(r.holdoutSnrDb).toBe(Math.max(...scores));
+    expect(r.details.slopeChoice).toBe('given');
     expect([...stages]).toEqual(expect.arrayContaining(['slopes', 'fill', 'holdout']));
   });
 
