@@ -175,6 +175,8 @@ export class AppState {
   }
 
   #showGather(g: GatherPayload): void {
+    // A running fill belongs to the gather it started on.
+    this.#fillCall?.cancel();
     const index = g.index;
     this.#warn(g.warnings);
     this.gatherIndex = index;
@@ -263,6 +265,8 @@ export class AppState {
         data: g.data.slice(), nTraces: g.nTraces, nSamples: g.nSamples, dtSeconds: g.dtSeconds,
         unknown: this.fill.unknown, factor: plan.factor, options: { ...this.dips.options },
       });
+      // The user may have stepped to another gather meanwhile: a field belongs to the gather it was made on.
+      if (this.gather !== g) return;
       this.dips.setEstimate(r);
       this.view.dipLayer = true;
     } catch (e) {
@@ -346,11 +350,15 @@ export class AppState {
     this.#fillCall = call;
     try {
       const r = await call.result;
+      if (this.gather !== g) {
+        this.notify({ kind: 'info', text: `The fill of gather ${g.keyValue} finished after you moved on; it was not kept.` });
+        return;
+      }
       this.fill.finish(r);
       this.view.compare = 'after';
       this.spectra = null;
     } catch (e) {
-      this.fill.finish(null);
+      if (this.gather === g) this.fill.finish(null);
       this.report(e, 'Fill');
     } finally {
       this.#fillCall = null;
