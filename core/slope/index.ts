@@ -5,3 +5,4 @@ export { applyDipEdits, validateDipEdits, linkPath, type DipEdit, type DipPoint,
 export { pairsToTraces, tracesToPairs, pairsToTracesUnchecked, tracesToPairsUnchecked, pairPositionTrace } from './pair-grid';
 export { slopeToUnit, slopeFromUnit, slopeUnitFactor, convertSlopeArray, SLOPE_UNITS, SLOPE_UNIT_LABEL, type SlopeUnit, type SlopeUnitContext } from './units';
 export { detectDecimationFactor } from './decimation';
+export { centredToSplitSlopes, centredToSplitSlopesUnchecked } from './split-convention';
