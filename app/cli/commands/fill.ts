@@ -18,6 +18,7 @@ import { InputFileError, isInputFileError, throwIfCancelled, type FileProblem } 
 import { badTracesForGather, editsForGather, parseRecipe, type Recipe } from '../../../core/recipe/recipe';
 import { GATHER_KEY_NAMES, gatherGeometry, indexGathers, openSegy, parseGatherKey, readGather, type GatherGeometry, type GatherIndex, type LoadedGather, type SegyFile } from '../../../core/segy';
 import { tracesToPairs } from '../../../core/slope/index';
+import { resolveNetOptions, type NetSolverOptions } from '../../../core/nn/solver';
 import { writeFileAtomically } from '../../host/atomic-output';
 import { FillPool } from '../../host/fill-pool';
 import { openFileByteSource, type FileByteSource } from '../../host/file-source';
@@ -217,6 +218,7 @@ async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
     recipe = parseRecipe(text, rp);
   }
   const settings = settingsFrom(recipe, o);
+  if (settings.solver === 'net') resolveNetOptions(settings.net as NetSolverOptions); // bad values: exit 2 before any work
   const keyText = String(o.key ?? recipe?.gatherKey ?? 'record');
   const key = parseGatherKey(keyText);
   const spacingM = (o.spacing as number | undefined) ?? recipe?.spacingM;
