@@ -192,7 +192,10 @@ function drawFilledBrackets(ctx: CanvasRenderingContext2D, rect: PlotRect, scene
   ctx.strokeStyle = STATUS_STYLES[TraceStatus.filled].colour;
   ctx.lineWidth = 1.5;
   ctx.setLineDash([6, 4]);
+  // Runs of 2 or more only: around single filled traces (decimation) the lines would stripe the whole section;
+  // those are marked in the strip and by their teal wiggles.
   for (const [a, b] of runsOf(scene.status, [TraceStatus.filled])) {
+    if (b === a) continue;
     for (const edge of [a, b + 1]) {
       const { x } = dataToScreen(w, rect, edge, 0);
       if (x < rect.left - 1 || x > rect.left + rect.width + 1) continue;
