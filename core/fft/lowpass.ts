@@ -9,6 +9,7 @@ import { createRealFftPlan, nextPowerOfTwo, type RealFftPlan } from './real-fft'
 
 export interface LowpassWorkspace {
   readonly plan: RealFftPlan;
+  /** Packed complex input (two traces), length 2·size. */
   readonly padded: Float64Array;
   readonly spectrum: Float64Array;
   readonly back: Float64Array;
@@ -27,44 +28,51 @@ export function createLowpassWorkspace(nSamples: number, passCyclesPerSample: nu
     gain[b] = f <= passCyclesPerSample ? 1 : f >= stopCyclesPerSample ? 0
       : 0.5 * (1 + Math.cos((Math.PI * (f - passCyclesPerSample)) / (stopCyclesPerSample - passCyclesPerSample)));
   }
-  return { plan, padded: new Float64Array(size), spectrum: new Float64Array(2 * size), back: new Float64Array(size), gain };
+  return { plan, padded: new Float64Array(2 * size), spectrum: new Float64Array(2 * size), back: new Float64Array(size), gain };
 }
 
 /**
  * out[trace] = low-pass(x[trace]) for every trace. out may be x itself. Allocation-free given the workspace.
+ * Two traces go through one complex transform (trace a as the real part, trace b as the imaginary part): the gain
+ * is real and even in frequency, so filtering a + ib gives filtered a + i·filtered b (common FFT practice).
  * @returns out
  */
 export function lowpassTracesUnchecked(
   out: Float64Array, x: ArrayLike<number>, nTraces: number, nSamples: number, ws: LowpassWorkspace,
 ): Float64Array {
-  const { plan, padded, spectrum, back, gain } = ws;
+  const { plan, spectrum, gain } = ws;
   const size = plan.size;
-  for (let tr = 0; tr < nTraces; tr++) {
-    const base = tr * nSamples;
+  const packed = ws.padded;
+  const back = plan.scratch;
+  for (let a = 0; a < nTraces; a += 2) {
+    const b = a + 1 < nTraces ? a + 1 : -1;
+    const baseA = a * nSamples, baseB = b * nSamples;
+    packed.fill(0);
     let any = false;
     for (let i = 0; i < nSamples; i++) {
-      const v = x[base + i];
-      padded[i] = v;
-      if (v !== 0) any = true;
+      const va = x[baseA + i];
+      packed[2 * i] = va;
+      if (va !== 0) any = true;
+      if (b >= 0) {
+        const vb = x[baseB + i];
+        packed[2 * i + 1] = vb;
+        if (vb !== 0) any = true;
+      }
     }
     if (!any) {
-      for (let i = 0; i < nSamples; i++) out[base + i] = 0;
+      for (let i = 0; i < nSamples; i++) out[baseA + i] = 0;
+      if (b >= 0) for (let i = 0; i < nSamples; i++) out[baseB + i] = 0;
       continue;
     }
-    padded.fill(0, nSamples);
-    plan.impl.realTransform(spectrum, padded);
-    // Only bins 0..size/2 are valid after realTransform; apply the gain there and rebuild the upper half.
-    for (let b = 0; b <= size / 2; b++) {
-      spectrum[2 * b] *= gain[b];
-      spectrum[2 * b + 1] *= gain[b];
+    plan.impl.transform(spectrum, packed);
+    for (let k = 0; k < size; k++) {
+      const g = gain[k <= size / 2 ? k : size - k];
+      spectrum[2 * k] *= g;
+      spectrum[2 * k + 1] *= g;
     }
-    for (let b = 1; b < size / 2; b++) {
-      spectrum[2 * (size - b)] = spectrum[2 * b];
-      spectrum[2 * (size - b) + 1] = -spectrum[2 * b + 1];
-    }
-    plan.impl.inverseTransform(plan.scratch, spectrum);
-    for (let i = 0; i < nSamples; i++) back[i] = plan.scratch[2 * i];
-    for (let i = 0; i < nSamples; i++) out[base + i] = back[i];
+    plan.impl.inverseTransform(back, spectrum);
+    for (let i = 0; i < nSamples; i++) out[baseA + i] = back[2 * i];
+    if (b >= 0) for (let i = 0; i < nSamples; i++) out[baseB + i] = back[2 * i + 1];
   }
   return out;
 }
