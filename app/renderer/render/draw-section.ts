@@ -205,6 +205,19 @@ function drawFilledBrackets(ctx: CanvasRenderingContext2D, rect: PlotRect, scene
       ctx.stroke();
     }
   }
+  // Traces marked bad keep showing their (bad) data, framed in magenta dots until the fill replaces them.
+  ctx.strokeStyle = STATUS_STYLES[TraceStatus.markedBad].colour;
+  ctx.setLineDash([2, 3]);
+  for (const [a, b] of runsOf(scene.status, [TraceStatus.markedBad])) {
+    for (const edge of [a, b + 1]) {
+      const { x } = dataToScreen(w, rect, edge, 0);
+      if (x < rect.left - 1 || x > rect.left + rect.width + 1) continue;
+      ctx.beginPath();
+      ctx.moveTo(x, rect.top);
+      ctx.lineTo(x, rect.top + rect.height);
+      ctx.stroke();
+    }
+  }
   ctx.setLineDash([]);
 }
 
