@@ -3,9 +3,10 @@
  * Steps (docs/slopes.md explains the choices):
  *  1. live mask: the caller's mask minus traces that are all zero;
  *  2. regular decimation by k (given or read from the mask): work on the coarse grid of live traces;
- *  3. amplitude balance (balance.ts);
- *  4. steepest slope measured on an 8× time-decimated copy (structure tensor) → number of coarse-to-fine levels
- *     and, for decimated data, a low-pass below the alias frequency 1/(2|σ_c,max|);
+ *  3. band limit: low-pass above 1.25 × the frequency holding 99 % of the energy (fft.js), then amplitude
+ *     balance (balance.ts);
+ *  4. steepest slope measured on an 8× time-decimated copy (structure tensor) → number of coarse-to-fine levels,
+ *     a bound on |σ|, and, for decimated data, a low-pass below the alias frequency 1/(2|σ_c,max|);
  *  5. 'pwd': coarse-to-fine over time-decimated copies (σ halves per level); the coarsest level starts from and
  *     is regularised toward a structure-tensor prior; each finer level starts from and is regularised toward the
  *     level above, with a frozen integer shift where |σ| is steep (destruction.ts); Gauss-Newton per level
