@@ -59,6 +59,7 @@ export class AppState {
   readonly #store: KeyValueStore;
   readonly autosaver: Autosaver;
   #fillCall: RunningCall<FillResult> | null = null;
+  #exportCall: RunningCall<unknown> | null = null;
   /** The last exported SEG-Y, kept so it can be opened again at once (and checked by the end-to-end test). */
   lastExport: { blob: Blob; name: string } | null = null;
   #saved: SavedWork | null = null;
@@ -369,6 +370,12 @@ export class AppState {
     this.#fillCall?.cancel();
   }
 
+  /** Stops "fill and save all gathers"; nothing is saved. */
+  cancelExport(): void {
+    if (this.#exportCall && !this.#exportCall.cancel())
+      this.notify({ kind: 'warning', text: 'This window cannot stop the export midway (it is not cross-origin isolated); it will finish on its own.' });
+  }
+
   async computeSpectra(): Promise<void> {
     const g = this.gather;
     if (!g) return;
@@ -447,13 +454,15 @@ export class AppState {
     const r = this.fill.result;
     this.exporting = 'Filling every gather…';
     try {
-      const out = await this.#io.call('fillAll', {
+      const call = this.#io.start('fillAll', {
         slope: { ...this.dips.options }, settings: { ...this.fill.settings }, method: this.methodText(false),
         work: Object.fromEntries(Object.entries(snap?.gathers ?? {}).map(([k, v]) => [k, { edits: v.edits, bad: v.bad }])),
         current: r && this.gather ? { gather: this.gatherIndex, data: r.data, filled: this.fill.unknown } : null,
       }, {
         onProgress: (p) => { this.exporting = `Filling gather ${p.gather + 1} of ${p.of} (key ${p.keyValue})…`; },
       });
+      this.#exportCall = call;
+      const out = await call.result;
       const scores = out.report.map((x) => x.holdoutSnrDb).filter((x): x is number => x !== null && Number.isFinite(x));
       this.notify({ kind: 'info', text: `Filled ${out.filledTraces} traces in ${out.gathers} gathers.${scores.length ? ` Hold-out scores ${Math.min(...scores).toFixed(1)} to ${Math.max(...scores).toFixed(1)} dB.` : ''}` });
       this.lastExport = { blob: out.blob, name: `${this.#baseName()}-filled.sgy` };
@@ -462,6 +471,7 @@ export class AppState {
       this.report(e, 'Filling all gathers');
     } finally {
       this.exporting = null;
+      this.#exportCall = null;
     }
   }
 

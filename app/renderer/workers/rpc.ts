@@ -25,7 +25,8 @@ export interface CallOptions<P> {
 
 export interface RunningCall<R> {
   readonly result: Promise<R>;
-  cancel(): void;
+  /** Asks the worker to stop; false when it cannot be stopped (no shared memory and the worker keeps state). */
+  cancel(): boolean;
 }
 
 interface Pending {
@@ -41,10 +42,16 @@ export class WorkerClient {
   #pending = new Map<number, Pending>();
   #readBytes: ((fileId: string, offsetBytes: number, lengthBytes: number) => Promise<Uint8Array>) | null;
 
-  /** `readBytes` serves the worker's reads of desktop files (window.dipweave.readRange). */
-  constructor(make: () => Worker, readBytes: ((fileId: string, offsetBytes: number, lengthBytes: number) => Promise<Uint8Array>) | null = null) {
+  #mayTerminate: boolean;
+
+  /**
+   * `readBytes` serves the worker's reads of desktop files (window.dipweave.readRange). `mayTerminate`: whether
+   * a cancel without shared memory may stop the worker (false for a worker that keeps the open file).
+   */
+  constructor(make: () => Worker, readBytes: ((fileId: string, offsetBytes: number, lengthBytes: number) => Promise<Uint8Array>) | null = null, mayTerminate = true) {
     this.#make = make;
     this.#readBytes = readBytes;
+    this.#mayTerminate = mayTerminate;
   }
 
   get #w(): Worker {
@@ -104,16 +111,18 @@ export class WorkerClient {
     return {
       result,
       cancel: () => {
-        if (!this.#pending.has(id)) return;
+        if (!this.#pending.has(id)) return true;
         if (flag) {
           Atomics.store(flag, 0, 1);
         } else {
+          if (!this.#mayTerminate) return false;
           // No shared memory: stop the worker outright; it restarts on the next call.
           const p = this.#pending.get(id)!;
           this.#pending.delete(id);
           p.reject(new WorkerCallError({ kind: 'cancelled', message: 'cancelled' }));
           this.#failAll({ kind: 'bug', message: 'worker stopped to cancel another job' });
         }
+        return true;
       },
     };
   }

@@ -70,3 +70,13 @@ describe('WorkerClient', () => {
     expect(e instanceof WorkerCallError && e.payload.kind).toBe('bug');
   });
 });
+
+describe('WorkerClient that keeps state', () => {
+  it('refuses to terminate its worker to cancel when there is no shared memory', () => {
+    const made: FakeWorker[] = [];
+    const c = new WorkerClient(() => { const w = new FakeWorker(); made.push(w); return w as unknown as Worker; }, null, false);
+    const run = c.start('header', { fileTrace: 1 });
+    expect(run.cancel()).toBe(false);
+    expect(made[0].terminated).toBe(false);
+  });
+});
