@@ -179,9 +179,17 @@ export function measureSteepestSlope(u: Float64Array, nTraces: number, nSamples:
   return vals[Math.min(vals.length - 1, Math.floor(0.9 * vals.length))] * m;
 }
 
-function levelsFor(maxSlope: number, order: PwdOrder, nSamples: number): number {
+/**
+ * Number of coarse-to-fine levels: the coarsest level must see the steepest slope unaliased. At level L the data
+ * hold frequencies below min(band, 0.5/2^L) cycles per (fine) sample; a slope σ aliases above 1/(2|σ|), so we need
+ * min(band, 0.5/2^L) · margin · σ_max ≤ ½. On band-limited data gentle and moderate slopes need no level at all;
+ * GENTLE_SLOPE only matters for full-band data.
+ */
+function levelsFor(maxSlope: number, order: PwdOrder, nSamples: number, bandCyclesPerSample: number): number {
   let levels = 0;
-  while (levels < MAX_TIME_LEVELS && (MEASURE_MARGIN * maxSlope) / 2 ** levels > GENTLE_SLOPE[order] && nSamples / 2 ** (levels + 1) >= MIN_LEVEL_SAMPLES) levels++;
+  const steep = MEASURE_MARGIN * maxSlope;
+  const aliased = (l: number) => Math.min(bandCyclesPerSample, 0.5 / 2 ** l) * steep > 0.5 && steep / 2 ** l > GENTLE_SLOPE[order];
+  while (levels < MAX_TIME_LEVELS && aliased(levels) && nSamples / 2 ** (levels + 1) >= MIN_LEVEL_SAMPLES) levels++;
   return levels;
 }
 
@@ -358,7 +366,7 @@ export function estimateSlopes(
   }
   throwIfCancelled(cancel);
 
-  const levels = levelsFor(maxSlope, s.order, nSamples);
+  const levels = levelsFor(maxSlope, s.order, nSamples, cutoff);
   const slopeBound = Math.max(MIN_SLOPE_BOUND, SLOPE_BOUND_FACTOR * maxSlope);
   const nFinePairs = (nTraces - 1) * nSamples;
   let observations: SlopeObservations | undefined;
