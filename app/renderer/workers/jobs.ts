@@ -51,7 +51,7 @@ export const JOBS: { [K in ApiName]?: Handler<K> } = {
       (i.decimationFactor > 1 ? `; estimated on the coarse grid (every ${i.decimationFactor}th trace)` : '') +
       (i.lowpassCyclesPerSample < 0.5 ? `, low-passed below ${(i.lowpassCyclesPerSample / (p.dtSeconds)).toFixed(1)} Hz` : '') +
       (i.timeLevels > 0 ? `; ${i.timeLevels} coarse-to-fine time level${i.timeLevels > 1 ? 's' : ''}` : '') +
-      (i.method === 'pwd' ? `; destruction residual ${(100 * i.residualEnd).toFixed(1)}% of the balanced data energy` : '');
+      (i.method === 'pwd' ? `; destruction residual energy ${(100 * i.residualStart).toFixed(0)}% → ${(100 * i.residualEnd).toFixed(0)}% of the balanced data energy on the finest Gauss-Newton level` : '');
     const result = {
       slopePairs: f.estimatePairs, slopeTraces: f.slopeTraces, confidence: f.confidence,
       seconds: (performance.now() - t0) / 1000, description, gaps,
