@@ -21,6 +21,7 @@ describe('section picture', () => {
     expect(out[nSamples]).not.toBe(lut[255]);
   });
 
+  // Positive = dark on a grey variable-density plot: common practice, no source; the screen states it.
   it('grey: positive is dark (polarity statement on screen), negative light', () => {
     const lum = (c: number) => (c & 255) + ((c >>> 8) & 255) + ((c >>> 16) & 255);
     expect(lum(AMPLITUDE_LUTS.grey.packed[255])).toBeLessThan(lum(AMPLITUDE_LUTS.grey.packed[0]));

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+// Zoom/pan arithmetic is our own; the expected windows follow from the definition of zooming about a point.
 import { ViewState } from '../../../../../app/renderer/state/view.svelte';
 
 describe('ViewState (zoom, pan, keys)', () => {
