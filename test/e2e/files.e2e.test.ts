@@ -71,6 +71,29 @@ describe.skipIf(!haveChromium)('files in and out', () => {
     expect(await s.page.textContent('[data-testid=legend-missing]')).toContain('0');
   });
 
+  it('zooms about the cursor, pans by keys and reads out time, position and amplitude under the cursor', async () => {
+    const page = s.page;
+    type W = { traceStart: number; traceEnd: number; sampleStart: number; sampleEnd: number };
+    const win = () => page.evaluate(() => ({ ...(window as unknown as { __dipweave: { view: { window: W } } }).__dipweave.view.window }));
+    const box = (await page.locator('[data-testid=section-overlay]').boundingBox())!;
+    const before = await win();
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.mouse.wheel(0, -300);
+    await expect.poll(async () => { const w = await win(); return w.traceEnd - w.traceStart; }).toBeLessThan(before.traceEnd - before.traceStart);
+    const zoomed = await win();
+    await page.focus('[data-testid=section]');
+    await page.keyboard.press('ArrowRight');
+    await expect.poll(async () => (await win()).traceStart).toBeGreaterThan(zoomed.traceStart);
+    // Readout: time in ms from the sample under the cursor, 2 ms sampling (make_segy.py).
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    const text = (await page.textContent('[data-testid=readout]'))!;
+    expect(text).toMatch(/t [\d.]+ ms/);
+    expect(text).toMatch(/position [\d.]+ m/);
+    expect(text).toMatch(/amplitude -?[\d.e+-]+/);
+    await page.keyboard.press('Home');
+    await expect.poll(win).toEqual(before);
+  });
+
   it('shows the coded problem for bad files and keeps working', async () => {
     const before = await s.page.textContent('[data-testid=file-name]');
     // Smaller than the 3600 bytes of the textual and binary headers.
