@@ -8,7 +8,7 @@
  */
 import { BugError, isInputFileError, throwIfCancelled, type CancelToken } from '../problems';
 import { snrDb } from '../quality/snr';
-import { fillRmsRatio, gapRmsRatio } from './amplitude';
+import { fillRmsRatio, gapRmsRatio, liftQuietFills } from './amplitude';
 import { clipWildSlopes, slopeEstimator, slopesForFill, type SlopeEstimator } from './fill-slopes';
 import type { SlopeOptions } from '../slope/index';
 import { solveGapsNet, type NetSolverOptions } from '../nn/solver';
@@ -31,6 +31,8 @@ export interface FillSettings {
   slope: SlopeOptions;
   /** Destructor orders the hold-out chooses from for the least-squares fill (one entry: no choice). */
   orders: PwdOrder[];
+  /** Lift filled windows quieter than 80 % of their recorded neighbours' level (core/fill/amplitude.ts). */
+  keepAmplitude: boolean;
 }
 
 export const FILL_DEFAULTS: Readonly<FillSettings> = {
@@ -41,6 +43,7 @@ export const FILL_DEFAULTS: Readonly<FillSettings> = {
   secondPass: false,
   slope: {},
   orders: [1, 2],
+  keepAmplitude: true,
 };
 
 export type FillStage = 'slopes' | 'fill' | 'holdout' | 'second-pass';
@@ -209,6 +212,14 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
     slopes = pick.main;
     holdoutSnr = pick.snr;
     fillH = pick.res;
+    if (settings.keepAmplitude) {
+      // Score what is delivered: the chosen hold-out fill, stopped at the chosen count and lifted like the fill.
+      const hold = solveLeastSquares({ data: dH, nTraces, nSamples, unknownTraces: unkH, slopePairs: pick.name === 'flat' ? pick.main : slopesH, cancel }, { ...settings.lsq, order: pick.order, maxIterations: pick.iterations });
+      const lifted = Float64Array.from(hold.data);
+      liftQuietFills(lifted, unkH, nTraces, nSamples);
+      holdoutSnr = snrDb(d, lifted, design.hidden, nSamples);
+      details.holdoutSnrDbBeforeLift = pick.snr;
+    }
     Object.assign(details, chosen.details, { slopeChoice: pick.name, order: pick.order, iterationsChosenByHoldout: pick.iterations });
   } else {
     chosen = await runSolver(d, unknown, slopes1, 'fill', 0.1, 0.55);
@@ -216,7 +227,9 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
     if (slopesH) {
       report('holdout', 0.55);
       fillH = await runSolver(dH, unkH, slopesH, 'holdout', 0.6, 1);
-      holdoutSnr = snrDb(d, fillH.data, design.hidden, nSamples);
+      const scored = Float64Array.from(fillH.data);
+      if (settings.keepAmplitude) liftQuietFills(scored, unkH, nTraces, nSamples);
+      holdoutSnr = snrDb(d, scored, design.hidden, nSamples);
     }
   }
   const fill1 = chosen;
@@ -243,6 +256,11 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
     } else second = 'rejected';
   }
 
+  if (settings.keepAmplitude) {
+    const data = Float64Array.from(chosen.data);
+    details.largestAmplitudeLift = liftQuietFills(data, unknown, nTraces, nSamples);
+    chosen = { ...chosen, data };
+  }
   details.clippedSlopeSamples = clippedSlopes;
   if (holdoutProblem) details.holdoutProblem = holdoutProblem;
   const filled = Float32Array.from(input.data);

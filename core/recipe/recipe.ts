@@ -38,6 +38,7 @@ export interface RecipeFill {
   net?: RecipeNetSettings;
   holdout?: boolean;
   secondPass?: boolean;
+  keepAmplitude?: boolean;
 }
 
 export type RecipeSlopes = Omit<SlopeOptions, 'edits'>;
@@ -116,7 +117,7 @@ export function validateRecipe(value: unknown, file?: string): Recipe {
   };
   checkObject(file, 'recipe', value, top);
   if (value.fill !== undefined) {
-    checkObject(file, 'fill', value.fill, { solver: oneOf('lsq', 'net'), lsq: () => null, net: () => null, holdout: bool, secondPass: bool });
+    checkObject(file, 'fill', value.fill, { solver: oneOf('lsq', 'net'), lsq: () => null, net: () => null, holdout: bool, secondPass: bool, keepAmplitude: bool });
     const f = value.fill as Record<string, unknown>;
     if (f.lsq !== undefined) checkObject(file, 'fill.lsq', f.lsq, LSQ_FIELDS);
     if (f.net !== undefined) checkObject(file, 'fill.net', f.net, NET_FIELDS);

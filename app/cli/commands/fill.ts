@@ -43,6 +43,7 @@ export const fillSpec: CommandSpec = {
     { name: 'recipe', kind: 'string', meta: 'FILE', help: 'settings and dip edits saved by Dipweave; options given here override it' },
     { name: 'shard', kind: 'string', meta: 'I/N', help: 'fill only the I-th of N equal runs of gathers (1-based), e.g. from a cluster job array; merge with `dipweave stitch`' },
     { name: 'order', kind: 'integer', choices: ['1', '2'], meta: '1|2', help: 'destructor order for the least-squares fill (default: the hold-out check chooses 1 or 2)' },
+    { name: 'free-amplitude', kind: 'flag', help: 'do not lift filled windows that come out quieter than their recorded neighbours (may gain SNR, loses amplitude)' },
     { name: 'second-pass', kind: 'flag', help: 're-estimate slopes on the filled gather and fill again; kept only where the hold-out score improves' },
     { name: 'width', kind: 'integer', meta: 'N', help: 'network: units per hidden layer' },
     { name: 'depth', kind: 'integer', meta: 'N', help: 'network: hidden layers' },
@@ -141,6 +142,7 @@ export function settingsFrom(recipe: Recipe | undefined, o: Record<string, strin
     net,
     holdout: r.holdout ?? true,
     secondPass: o['second-pass'] === true ? true : (r.secondPass ?? false),
+    keepAmplitude: o['free-amplitude'] === true ? false : (r.keepAmplitude ?? true),
     slope: { ...(recipe?.slopes ?? {}) },
   };
 }

@@ -46,7 +46,7 @@ async function refill(nTraces: number, removed: number[]) {
 
 describe.skipIf(!have)('fill on WL1.sgy (physical-model shot gather, Lorenzo et al.)', () => {
   // Every second trace removed from traces 0..62 (so the gather ends on a recorded trace).
-  // Measured 2026-12-01: SNR −0.84 dB, hold-out +0.43 dB (difference 1.3 dB).
+  // Measured 2026-12-01 21:30 UTC: SNR −1.13 dB, hold-out +0.41 dB (difference 1.5 dB).
   it('every second trace removed: the hold-out score predicts the SNR on the removed traces within 3 dB', async () => {
     const removed = Array.from({ length: 31 }, (_, i) => 2 * i + 1);
     const { trueSnr, r } = await refill(63, removed);
@@ -56,7 +56,7 @@ describe.skipIf(!have)('fill on WL1.sgy (physical-model shot gather, Lorenzo et 
   });
 
   // A centred block of 10 traces (27–36). Known shortfall, reported to the lead and in docs/fill.md. Measured
-  // 2026-12-01: SNR −4.08 dB, hold-out +0.22 dB (difference 4.3 dB > 3; the hold-out block sits at traces 9–18).
+  // 2026-12-01 21:30 UTC: SNR −4.63 dB, hold-out −0.55 dB (difference 4.1 dB > 3; the hold-out block sits at 9–18).
   // Every fill here scores below ~0 dB (worse than or equal to no fill), and the hold-out says the fill is not to
   // be trusted; the removed block holds trace 34, one of the loud traces that recur every 8 channels in this
   // gather (RMS 55 against 6–9 beside it), which dominates the error. Other 10-trace blocks (10–19, 44–53)

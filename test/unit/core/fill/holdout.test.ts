@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { designHoldout } from '../../../../core/fill/holdout';
-import { fillRmsRatio, gapRmsRatio } from '../../../../core/fill/amplitude';
+import { fillRmsRatio, gapRmsRatio, liftQuietFills } from '../../../../core/fill/amplitude';
 import { clipWildSlopes } from '../../../../core/fill/fill-slopes';
 
 const mask = (s: string) => Array.from(s, (c) => (c === 'x' ? 1 : 0));
@@ -62,5 +62,20 @@ describe('amplitude checks', () => {
     expect(slopes[5]).toBeCloseTo(1.6, 12);
     expect(slopes[nS + 90]).toBeCloseTo(-1.6, 12);
     expect(slopes[50]).toBe(0.8);
+  });
+});
+
+describe('lifting quiet fills', () => {
+  it('lifts a filled trace below 80 % of its neighbours to 80 %, and leaves fills within 80 % bit for bit', () => {
+    const nS = 50;
+    const row = (a: number) => Array.from({ length: nS }, (_, t) => a * Math.sin(t / 3));
+    // recorded (amplitude 2) | filled at 1.0 (50 %) | filled at 1.7 (85 %) | recorded (2)
+    const u = Float64Array.from([...row(2), ...row(1), ...row(1.7), ...row(2)]);
+    const before = u.slice();
+    const gain = liftQuietFills(u, [0, 1, 1, 0], 4, nS);
+    expect(gain).toBeCloseTo(1.6, 12); // 0.8 · 2 / 1
+    for (let t = 0; t < nS; t++) expect(u[nS + t]).toBeCloseTo(1.6 * Math.sin(t / 3), 12);
+    for (let t = 0; t < nS; t++) expect(u[2 * nS + t]).toBe(before[2 * nS + t]);
+    for (let t = 0; t < nS; t++) expect(u[t]).toBe(before[t]);
   });
 });
