@@ -151,7 +151,17 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
 
   // Slopes for the fill and for the hold-out problem.
   report('slopes', 0);
-  const slopes1 = input.slopePairs ?? estimate(d, unknown, plan.factor);
+  let slopeProblem = '';
+  let slopes1: Float64Array;
+  try {
+    slopes1 = input.slopePairs ?? estimate(d, unknown, plan.factor);
+  } catch (e) {
+    // No slopes can be estimated (e.g. no two neighbouring recorded traces, or silent ones): fill with flat
+    // slopes, a smooth blend of the neighbours, and say so in the details; the hold-out still scores it.
+    if (!isInputFileError(e)) throw e;
+    slopeProblem = e.problem.code;
+    slopes1 = new Float64Array(Math.max(0, nTraces - 1) * nSamples);
+  }
   throwIfCancelled(cancel);
   const design = settings.holdout ? designHoldout(unknown, plan.factor) : { kind: 'none' as HoldoutKind, hidden: [] };
   const unkH = Uint8Array.from(unknown);
@@ -166,7 +176,7 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
       // reuses the slopes from all recorded traces: hiding every k-th trace doubles the spacing, and slopes
       // estimated on that 2k grid are far more aliased than the real problem's (measured: 3–11 dB hold-out
       // scores for 42–48 dB fills at k = 3, 4); the fill across the wider hole is still harder than the real one.
-      slopesH = input.slopePairs ?? (design.kind === 'decimation' ? slopes1 : estimate(dH, unkH, plan.factor));
+      slopesH = input.slopePairs ?? (design.kind === 'decimation' || slopeProblem ? slopes1 : estimate(dH, unkH, plan.factor));
     } catch (e) {
       // The hidden traces can leave too little to estimate from; the fill itself stands, without a score.
       if (!isInputFileError(e)) throw e;
@@ -174,6 +184,7 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
     }
   }
   const details: Record<string, number | string> = { holdoutHidden: design.hidden.length, slopeChoice: input.slopePairs ? 'given' : 'estimated' };
+  if (slopeProblem) details.slopeProblem = slopeProblem;
   let chosen: GapSolverResult;
   let slopes = slopes1;
   let holdoutSnr = Number.NaN;
@@ -187,8 +198,8 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
     for (const h of design.hidden) hiddenMask[h] = 1;
     let energy = 0;
     for (const h of design.hidden) for (let t = 0; t < nSamples; t++) energy += d[h * nSamples + t] ** 2;
-    const sets = [{ name: input.slopePairs ? 'given' : 'estimated', main: slopes1, hold: slopesH }];
-    if (!input.slopePairs) sets.push({ name: 'flat', main: new Float64Array(slopes1.length), hold: new Float64Array(slopes1.length) });
+    const sets = [{ name: input.slopePairs ? 'given' : slopeProblem ? 'flat' : 'estimated', main: slopes1, hold: slopesH }];
+    if (!input.slopePairs && !slopeProblem) sets.push({ name: 'flat', main: new Float64Array(slopes1.length), hold: new Float64Array(slopes1.length) });
     const orders = settings.orders.length ? settings.orders : [settings.lsq.order];
     let best: { name: string; main: Float64Array; order: PwdOrder; iterations: number; snr: number; res: GapSolverResult } | null = null;
     let n = 0;

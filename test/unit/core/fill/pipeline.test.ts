@@ -99,3 +99,14 @@ describe('fillGather', () => {
     await expect(fillGather({ data, nTraces: nT, nSamples: nS, plan: planFill({ nTraces: nT, present }), slopePairs: exact }, {}, { cancel: { cancelled: true } })).rejects.toThrow(CancelledError);
   });
 });
+
+describe('fillGather without usable slopes', () => {
+  it('fills with flat slopes and says why when no slopes can be estimated (silent recorded traces)', async () => {
+    const n = 12, nS = 64;
+    const present = new Array(n).fill(1).fill(0, 5, 7);
+    const r = await fillGather({ data: new Float32Array(n * nS), nTraces: n, nSamples: nS, plan: planFill({ nTraces: n, present }) });
+    expect(r.details.slopeProblem).toBe('slope.no-live-pairs');
+    expect(r.details.slopeChoice).toBe('flat');
+    expect(Array.from(r.filled).every((v) => v === 0)).toBe(true);
+  });
+});
