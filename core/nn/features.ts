@@ -55,6 +55,8 @@ export interface FeatureDraw {
   /** Amplitude spectrum, bin k = k/nSpectrum cycles per sample (nSpectrum = the DFT length). */
   spectrum: Float64Array;
   nSpectrum: number;
+  /** Standard deviation of the random part of ω_x, cycles per unit x̃ (both modes). */
+  spreadCycles: number;
   seed: number;
 }
 
@@ -101,10 +103,10 @@ export function drawFeatureFrequencies(d: FeatureDraw): { omegaT: Float64Array; 
     omegaT[j] = wt;
     if (d.mode === 'dip' && d.slopes.length && slopeAcc > 0) {
       const sig = drawSlope() * slopeToScaled;
-      // Jitter of about a quarter cycle across the window lets amplitudes vary along x.
-      omegaX[j] = -sig * wt + 2 * Math.PI * 0.25 * rng.normal();
+      // The random part lets amplitudes vary along x.
+      omegaX[j] = -sig * wt + 2 * Math.PI * d.spreadCycles * rng.normal();
     } else {
-      omegaX[j] = 2 * Math.PI * (Math.abs(f) * rmsSlope * xScale + 0.25) * rng.normal();
+      omegaX[j] = 2 * Math.PI * (Math.abs(f) * rmsSlope * xScale + d.spreadCycles) * rng.normal();
     }
   }
   return { omegaT, omegaX };

@@ -29,6 +29,7 @@ export const NET_DEFAULTS: Required<Omit<NetSolverOptions, 'timeBudgetSeconds'>>
   activation: 'sin',
   nFreq: 24,
   features: 'dip',
+  featureSpread: 0.1,
   steps: 600,
   lambda: 'auto',
   learningRate: 1e-2,
@@ -90,6 +91,7 @@ export function resolveNetOptions(options: NetSolverOptions = {}): typeof NET_DE
   if (o.activation !== 'sin' && o.activation !== 'tanh') bad('activation', o.activation, "'sin' or 'tanh'");
   if (o.features !== 'dip' && o.features !== 'isotropic') bad('features', o.features, "'dip' or 'isotropic'");
   if (o.start !== 'lsq' && o.start !== 'none') bad('start', o.start, "'lsq' or 'none'");
+  if (!(o.featureSpread >= 0 && o.featureSpread <= 100)) bad('featureSpread', o.featureSpread, 'a number from 0 to 100');
   if (!(o.priorWeight >= 0 && Number.isFinite(o.priorWeight))) bad('priorWeight', o.priorWeight, 'a number ≥ 0');
   if (!Number.isInteger(o.seed)) bad('seed', o.seed, 'an integer');
   return o;

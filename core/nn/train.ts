@@ -24,6 +24,8 @@ export interface NetTrainOptions {
   /** Number of Fourier frequencies (2× as many features). */
   nFreq: number;
   features: FeatureMode;
+  /** Random spread of the features' x̃ frequencies, cycles per unit x̃ (see core/nn/features.ts). */
+  featureSpread: number;
   steps: number;
   /** Fixed λ (data normalised to unit RMS, coordinates in [−1, 1]) or 'auto'. */
   lambda: number | 'auto';
@@ -118,7 +120,7 @@ export async function trainNetWindow(job: NetWindowJob, o: NetTrainOptions, hook
     }
   }
   const { omegaT, omegaX } = drawFeatureFrequencies({
-    nFreq: o.nFreq, mode: o.features, nTraces, nSamples, slopes: job.slopePairs, slopeWeights, spectrum, nSpectrum: nSamples, seed: rng.int(0, 2 ** 31),
+    nFreq: o.nFreq, mode: o.features, nTraces, nSamples, slopes: job.slopePairs, slopeWeights, spectrum, nSpectrum: nSamples, spreadCycles: o.featureSpread, seed: rng.int(0, 2 ** 31),
   });
   const model = buildNetModel({ width: o.width, depth: o.depth, activation: o.activation }, omegaT, omegaX);
   const params = initNetParams(model, rng.int(0, 2 ** 31));

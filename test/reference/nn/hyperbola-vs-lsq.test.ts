@@ -33,7 +33,7 @@ async function scores() {
 }
 
 describe('network against least squares on hyperbolas across a 12-trace gap', () => {
-  // Measured 2026-12-01 (400 steps, seed 2): 24.7 dB. Floor: the 20 dB bar the issue sets for the plane wave.
+  // Measured 2026-12-01 (400 steps, seed 2): 29.0 dB. Floor: the 20 dB bar the issue sets for the plane wave.
   it('the network fill reaches 20 dB on the missing traces', async () => {
     expect((await scores()).net).toBeGreaterThanOrEqual(20);
   });

@@ -38,7 +38,7 @@ describe('Fourier-feature frequencies', () => {
     const spec = meanAmplitudeSpectrum(new Float64Array(nS / 2 + 1), data, known, nT, nS);
     expect(spec.indexOf(Math.max(...spec))).toBe(8);
     const slopes = new Float64Array((nT - 1) * nS).fill(0.7);
-    const { omegaT, omegaX } = drawFeatureFrequencies({ nFreq: 50, mode: 'dip', nTraces: nT, nSamples: nS, slopes, slopeWeights: null, spectrum: spec, nSpectrum: nS, seed: 3 });
+    const { omegaT, omegaX } = drawFeatureFrequencies({ nFreq: 50, mode: 'dip', nTraces: nT, nSamples: nS, slopes, slopeWeights: null, spectrum: spec, nSpectrum: nS, spreadCycles: 0.25, seed: 3 });
     const tScale = (nS - 1) / 2;
     const sigmaScaled = 0.7 * (nT - 1) / (nS - 1);
     for (let j = 0; j < 50; j++) {
@@ -47,7 +47,7 @@ describe('Fourier-feature frequencies', () => {
     }
     // ω_x = −σ̃ ω_t + jitter of standard deviation 2π·0.25 rad per unit x̃: mean |deviation| ≈ 0.8·π/2 ≈ 1.25;
     // isotropic features ignore the slope and deviate far more.
-    const iso = drawFeatureFrequencies({ nFreq: 50, mode: 'isotropic', nTraces: nT, nSamples: nS, slopes, slopeWeights: null, spectrum: spec, nSpectrum: nS, seed: 3 });
+    const iso = drawFeatureFrequencies({ nFreq: 50, mode: 'isotropic', nTraces: nT, nSamples: nS, slopes, slopeWeights: null, spectrum: spec, nSpectrum: nS, spreadCycles: 0.25, seed: 3 });
     let dev = 0, devIso = 0;
     for (let j = 0; j < 50; j++) {
       dev += Math.abs(omegaX[j] + sigmaScaled * omegaT[j]) / 50;
