@@ -3,5 +3,6 @@ import type { CliCommand } from '../context';
 import { inspectCommand } from './inspect';
 import { fillCommand } from './fill';
 import { dipsCommand } from './dips';
+import { stitchCommand } from './stitch';
 
-export const COMMANDS: CliCommand[] = [inspectCommand, fillCommand, dipsCommand];
+export const COMMANDS: CliCommand[] = [inspectCommand, fillCommand, stitchCommand, dipsCommand];
