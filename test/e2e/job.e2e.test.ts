@@ -145,6 +145,13 @@ describe.skipIf(!haveChromium)('the whole job on the demo line', () => {
       await page.click('[data-testid=step-check]');
       await page.click('[data-testid=compute-spectra]');
       await page.waitForSelector('[data-testid=fk-after]', { timeout: 60_000 });
+      // Score against the demo's complete line (the truth of this synthetic test), aligned and checked.
+      await page.click('[data-testid=score-demo]');
+      await page.waitForSelector('[data-testid=truth-score]', { timeout: 60_000 });
+      const truth = (await page.textContent('[data-testid=truth-score]'))!;
+      expect(truth).toMatch(/Against grv07-full\.sgy: -?\d+\.\d dB on the 16 filled positions/);
+      expect(truth).toContain('reference position 1 = position 1 on screen');
+      console.log(`demo gap gather against grv07-full.sgy: ${truth.match(/-?\d+\.\d dB/)![0]} (hold-out ${score})`);
       await shot(page, 'e2e-06-check');
 
       // Export the gather; the caution is on the export screen.

@@ -17,6 +17,7 @@ function inRange(v: unknown, lo: number, hi: number): boolean {
   return typeof v === 'number' && Number.isFinite(v) && v >= lo && v <= hi;
 }
 import { saveBytes } from '../io/host';
+import { snrDb } from '../../../core/quality/snr';
 import type { SaveKind } from '../../shared/ipc';
 import { slopeUnitFactor, SLOPE_UNIT_LABEL } from '../../../core/slope/units';
 import { badTracesForGather, editsForGather, makeRecipe, parseRecipe, type Recipe, type RecipeGather } from '../../../core/recipe/recipe';
@@ -50,6 +51,8 @@ export class AppState {
   header = $state.raw<HeaderField[] | null>(null);
   headerTrace = $state(-1);
   spectra = $state.raw<SpectraResult | null>(null);
+  /** Score of the fill against a reference file (synthetic tests only). */
+  truth = $state.raw<{ name: string; snrDb: number; traces: number; holdoutSnrDb: number | null; shift: number; mismatch: number } | null>(null);
   restoredFrom = $state<string | null>(null);
   spacingM = $state<number | null>(null);
   factor = $state(1);
@@ -192,6 +195,7 @@ export class AppState {
     this.dips.setGather(g.nTraces, g.nSamples, edits);
     this.fill.setGather(g.present, g.dead, work?.bad ?? [], g.factor);
     this.spectra = null;
+    this.truth = null;
     this.header = null;
     this.headerTrace = -1;
   }
@@ -358,6 +362,7 @@ export class AppState {
       this.fill.finish(r);
       this.view.compare = 'after';
       this.spectra = null;
+      this.truth = null;
     } catch (e) {
       if (this.gather === g) this.fill.finish(null);
       this.report(e, 'Fill');
@@ -374,6 +379,29 @@ export class AppState {
   cancelExport(): void {
     if (this.#exportCall && !this.#exportCall.cancel())
       this.notify({ kind: 'warning', text: 'This window cannot stop the export midway (it is not cross-origin isolated); it will finish on its own.' });
+  }
+
+  /**
+   * Scores the fill on screen against a reference file holding the complete recordings (a synthetic test such
+   * as the demo's grv07-full.sgy): SNR on the filled positions only (core/quality/snr.ts), beside the hold-out
+   * score that predicts it on real data.
+   */
+  async scoreAgainst(blob: Blob, name: string): Promise<void> {
+    const g = this.gather;
+    const r = this.fill.result;
+    if (!g || !r || !this.file) return;
+    try {
+      const ref = await this.#jobs.call('reference', {
+        blob, name, key: this.file.key, keyValue: g.keyValue, data: g.data.slice(), present: g.present, nTraces: g.nTraces, nSamples: g.nSamples,
+      });
+      if (this.gather !== g || this.fill.result !== r) return;
+      const filled: number[] = [];
+      const unknown = this.fill.unknown;
+      for (let x = 0; x < g.nTraces; x++) if (unknown[x]) filled.push(x);
+      this.truth = { name, snrDb: snrDb(ref.data, r.data, filled, g.nSamples), traces: filled.length, holdoutSnrDb: r.holdoutSnrDb, shift: ref.shift, mismatch: ref.mismatch };
+    } catch (e) {
+      this.report(e, 'Scoring against the reference');
+    }
   }
 
   async computeSpectra(): Promise<void> {

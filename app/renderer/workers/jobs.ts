@@ -11,6 +11,12 @@ import { LSQ_DEFAULTS } from '../../../core/fill/lsq';
 import { solveGapsNet } from '../../../core/nn/solver';
 import { unknownBlocks } from '../../../core/fill/plan';
 import { fkSpectrum, meanAmplitude, toDb } from '../analysis/spectra';
+import { InputFileError } from '../../../core/problems';
+import { openSegy } from '../../../core/segy/open';
+import { indexGathers, parseGatherKey, readGather } from '../../../core/segy/gathers';
+import { gatherGeometry } from '../../../core/segy/geometry';
+import { gatherOnGrid } from '../../../core/fill/gather-grid';
+import { blobByteSource } from '../io/blob-source';
 import type { Api, ApiName, FillSettings, SlopeOptions } from './protocol';
 
 type Handler<K extends ApiName> = (payload: Api[K]['req'], cancel: CancelToken, progress: (p: Api[K]['progress']) => void) => Promise<{ result: Api[K]['res']; transfer?: Transferable[] }>;
@@ -80,6 +86,41 @@ export const JOBS: { [K in ApiName]?: Handler<K> } = {
       details: r.details,
     };
     return { result, transfer: [result.data.buffer] };
+  },
+
+  async reference(p, cancel) {
+    const file = await openSegy(blobByteSource(p.name, p.blob));
+    const refuse = (message: string, found: string, hint: string) =>
+      new InputFileError({ code: 'input.bad-argument', severity: 'error', file: p.name, message, found, hint });
+    if (file.nSamples !== p.nSamples) throw refuse('the reference file has another trace length.', `${file.nSamples} samples`, `Expected ${p.nSamples} samples, as on screen.`);
+    const index = await indexGathers(file, parseGatherKey(p.key), { cancel });
+    const at = index.gathers.findIndex((g) => g.keyValue === p.keyValue);
+    if (at < 0) throw refuse(`the reference file has no gather with key value ${p.keyValue}.`, `${index.gathers.length} gathers`, 'Choose the reference of the same line and the same gather key.');
+    const g = await readGather(file, index, at, { cancel });
+    const geo = gatherGeometry(g.headers, g.data, g.nSamples);
+    const ref = gatherOnGrid(g.data, geo, g.nSamples);
+    const nRef = geo.gridCount;
+    const ns = p.nSamples;
+    // Alignment: the shift at which the recorded traces on screen equal the reference best (relative RMS misfit).
+    let best = -1, bestMis = Infinity;
+    for (let shift = 0; shift + p.nTraces <= nRef; shift++) {
+      let e = 0, s2 = 0;
+      for (let x = 0; x < p.nTraces; x++) {
+        if (!p.present[x]) continue;
+        for (let t = 0; t < ns; t++) {
+          const a = p.data[x * ns + t], b = ref[(x + shift) * ns + t];
+          e += (a - b) * (a - b);
+          s2 += a * a;
+        }
+      }
+      const mis = s2 > 0 ? Math.sqrt(e / s2) : Infinity;
+      if (mis < bestMis) { bestMis = mis; best = shift; }
+    }
+    // The recorded traces must be the same recordings (up to sample encoding): 1 % relative RMS at most.
+    if (best < 0 || !(bestMis < 0.01))
+      throw refuse('the reference does not line up with the gather on screen: its traces differ from the recorded ones.', best < 0 ? `${nRef} reference positions for ${p.nTraces} on screen` : `relative misfit ${(100 * bestMis).toFixed(1)} % at the best shift`, 'A reference must hold the same recordings as the recorded traces on screen (a synthetic test\'s complete version).');
+    const data = ref.slice(best * ns, (best + p.nTraces) * ns);
+    return { result: { data, shift: best, mismatch: bestMis, referenceTraces: nRef }, transfer: [data.buffer] };
   },
 
   async spectra(p) {

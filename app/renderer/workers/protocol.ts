@@ -182,6 +182,15 @@ export interface Api {
     req: { before: Float32Array; after: Float32Array | null; nTraces: number; nSamples: number; dtSeconds: number; spacingM: number | null; liveTraces: number[]; filledTraces: number[] };
     res: SpectraResult; progress: never;
   };
+  /**
+   * A reference gather (a synthetic test's truth, e.g. samples/grv07-full.sgy) aligned to the grid on screen:
+   * the gather with the same key value, shifted so that its traces match the recorded traces on screen.
+   */
+  reference: {
+    req: { blob: Blob; name: string; key: GatherKeyName; keyValue: number; data: Float32Array; present: Uint8Array; nTraces: number; nSamples: number };
+    res: { data: Float32Array; shift: number; mismatch: number; referenceTraces: number };
+    progress: never;
+  };
   writeGather: { req: ExportGather & { method: string }; res: { blob: Blob; tracesWritten: number; filledTraces: number }; progress: never };
   writeSlopes: { req: { gather: number; slopeTraces: Float32Array; unitLabel: string; method: string }; res: { blob: Blob }; progress: never };
 }
