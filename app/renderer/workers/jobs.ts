@@ -11,6 +11,7 @@ import { LSQ_DEFAULTS } from '../../../core/fill/lsq';
 import { solveGapsNet } from '../../../core/nn/solver';
 import { unknownBlocks } from '../../../core/fill/plan';
 import { fkSpectrum, meanAmplitude, toDb } from '../analysis/spectra';
+import { alignReference } from '../analysis/reference';
 import { InputFileError } from '../../../core/problems';
 import { openSegy } from '../../../core/segy/open';
 import { indexGathers, parseGatherKey, readGather } from '../../../core/segy/gathers';
@@ -101,21 +102,7 @@ export const JOBS: { [K in ApiName]?: Handler<K> } = {
     const ref = gatherOnGrid(g.data, geo, g.nSamples);
     const nRef = geo.gridCount;
     const ns = p.nSamples;
-    // Alignment: the shift at which the recorded traces on screen equal the reference best (relative RMS misfit).
-    let best = -1, bestMis = Infinity;
-    for (let shift = 0; shift + p.nTraces <= nRef; shift++) {
-      let e = 0, s2 = 0;
-      for (let x = 0; x < p.nTraces; x++) {
-        if (!p.present[x]) continue;
-        for (let t = 0; t < ns; t++) {
-          const a = p.data[x * ns + t], b = ref[(x + shift) * ns + t];
-          e += (a - b) * (a - b);
-          s2 += a * a;
-        }
-      }
-      const mis = s2 > 0 ? Math.sqrt(e / s2) : Infinity;
-      if (mis < bestMis) { bestMis = mis; best = shift; }
-    }
+    const { shift: best, misfit: bestMis } = alignReference(p.data, p.present, p.nTraces, ref, nRef, ns);
     // The recorded traces must be the same recordings (up to sample encoding): 1 % relative RMS at most.
     if (best < 0 || !(bestMis < 0.01))
       throw refuse('the reference does not line up with the gather on screen: its traces differ from the recorded ones.', best < 0 ? `${nRef} reference positions for ${p.nTraces} on screen` : `relative misfit ${(100 * bestMis).toFixed(1)} % at the best shift`, 'A reference must hold the same recordings as the recorded traces on screen (a synthetic test\'s complete version).');
