@@ -65,6 +65,19 @@ describe.skipIf(!haveChromium)('the whole job on the demo line', () => {
       expect(await page.textContent('[data-testid=slope-description]')).toMatch(/plane-wave destruction.*radii 8 samples × 4 traces/);
       await page.check('[data-testid=dip-strokes]');
       await shot(page, 'e2e-02-slopes');
+      // On the direct wave the local slope is the water's: apparent velocity 1500 m/s (the demo's water velocity,
+      // docs/demo-and-shell.md; direct wave = trace spacing / time step per trace, common practice). Reader,
+      // geometry, slope estimate, unit conversion and readout together, checked against physics.
+      const direct = await page.evaluate(() => {
+        const g = (window as unknown as { __dipweave: AppHandle }).__dipweave.gather;
+        let bt = 0, bv = -1;
+        for (let t = 0; t < g.nSamples; t++) { const v = Math.abs(g.data[30 * g.nSamples + t]); if (v > bv) { bv = v; bt = t; } }
+        return bt + 0.5;
+      });
+      const dp = await sectionPoint(page, 30.5, direct);
+      await page.mouse.move(dp.x, dp.y);
+      const v = Number.parseFloat((await page.textContent('[data-testid=readout-velocity]'))!);
+      expect(Math.abs(v - 1500)).toBeLessThan(0.05 * 1500);
 
       // Brush: set slope 0 on a short stroke left of the gap.
       await page.click('[data-testid=tool-brush]');
