@@ -18,11 +18,12 @@ import { NPY_HEADER_BYTES, npyFloat32Bytes, npyHeaderFloat32 } from '../../../co
 import { SLOPE_UNITS, SLOPE_UNIT_LABEL, slopeUnitFactor, type SlopeUnit } from '../../../core/slope/units';
 import { writeFileAtomically, type OutputSink } from '../../host/atomic-output';
 import { openFileByteSource } from '../../host/file-source';
+import { resolveInputOrDemo } from '../../host/demo-files';
 
 export const dipsSpec: CommandSpec = {
   name: 'dips',
   summary: 'Estimate the local slope (dip) field of every gather and write it as SEG-Y or .npy.',
-  positionals: [{ name: 'IN.sgy', help: 'SEG-Y file to read (never modified)' }],
+  positionals: [{ name: 'IN.sgy', help: 'SEG-Y file to read (never modified; default: the demo line)', optional: true }],
   options: [
     { name: 'out', kind: 'string', meta: 'DIPS.sgy|DIPS.npy', help: 'output file for the slopes (required)' },
     { name: 'units', kind: 'string', choices: SLOPE_UNITS, default: 'samples-per-trace', help: 'unit of the written slopes' },
@@ -55,9 +56,10 @@ interface Output {
 async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
   const args = parseCommandArgs(dipsSpec, argv);
   const o = args.options;
-  if (typeof o.out !== 'string' || o.out === '') throw badArg('`dipweave dips` needs --out DIPS.sgy (or DIPS.npy).', undefined, 'The input file is never written over.');
-  const inPath = resolve(ctx.cwd, args.positionals[0]);
-  const outPath = resolve(ctx.cwd, o.out);
+  const input = resolveInputOrDemo(args.positionals[0], ctx.cwd, ctx.stderr, 'dips');
+  if ((typeof o.out !== 'string' || o.out === '') && !input.isDemo) throw badArg('`dipweave dips` needs --out DIPS.sgy (or DIPS.npy).', undefined, 'The input file is never written over.');
+  const inPath = input.path;
+  const outPath = resolve(ctx.cwd, typeof o.out === 'string' && o.out !== '' ? o.out : 'grv07-gap.dips.sgy');
   const confPath = typeof o.confidence === 'string' ? resolve(ctx.cwd, o.confidence) : undefined;
   if (confPath && confPath === outPath) throw badArg('--confidence must name a different file than --out.', o.confidence as string);
   const unit = o.units as SlopeUnit;

@@ -23,6 +23,7 @@ import { writeFileAtomically } from '../../host/atomic-output';
 import { FillPool } from '../../host/fill-pool';
 import { openFileByteSource, type FileByteSource } from '../../host/file-source';
 import { writeFilledSegy } from '../../host/segy-output';
+import { resolveInputOrDemo } from '../../host/demo-files';
 
 export const CAUTION =
   'Filled traces are estimates made from the recorded traces and the local slopes, not recordings. Each gather\'s hold-out score (holdoutSnrDb: recorded traces hidden, filled the same way, and compared) is the measure of how far to trust its fill. No safety-critical decision should rest on filled data alone; follow local regulations and licensed practice.';
@@ -30,7 +31,7 @@ export const CAUTION =
 export const fillSpec: CommandSpec = {
   name: 'fill',
   summary: 'Fill missing, dead and decimated traces of every gather and write a new SEG-Y file with a report.',
-  positionals: [{ name: 'IN.sgy', help: 'SEG-Y file to fill (never modified)' }],
+  positionals: [{ name: 'IN.sgy', help: 'SEG-Y file to fill (never modified; default: the demo line)', optional: true }],
   options: [
     { name: 'out', kind: 'string', meta: 'OUT.sgy', help: 'output SEG-Y file (required; written through a temporary file)' },
     { name: 'factor', kind: 'integer', meta: 'K', help: 'insert K−1 traces between neighbouring traces (regular decimation by K); default: found from the geometry' },
@@ -204,9 +205,10 @@ class DipSource {
 async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
   const args = parseCommandArgs(fillSpec, argv);
   const o = args.options;
-  if (typeof o.out !== 'string' || o.out === '') throw badArg('`dipweave fill` needs --out OUT.sgy.', undefined, 'The input file is never written over.');
-  const inPath = resolve(ctx.cwd, args.positionals[0]);
-  const outPath = resolve(ctx.cwd, o.out);
+  const input = resolveInputOrDemo(args.positionals[0], ctx.cwd, ctx.stderr, 'fill');
+  if ((typeof o.out !== 'string' || o.out === '') && !input.isDemo) throw badArg('`dipweave fill` needs --out OUT.sgy.', undefined, 'The input file is never written over.');
+  const inPath = input.path;
+  const outPath = resolve(ctx.cwd, typeof o.out === 'string' && o.out !== '' ? o.out : 'grv07-gap.filled.sgy');
   const reportPath = resolve(ctx.cwd, typeof o.report === 'string' ? o.report : defaultReportPath(outPath));
   let recipe: Recipe | undefined;
   if (typeof o.recipe === 'string') {

@@ -2,18 +2,18 @@
  * `dipweave inspect FILE [--key NAME|BYTE] [--spacing M] [--byte-order big|little] [--lenient] [--json]`: what a SEG-Y file holds and, for each
  * gather, its geometry (spacing, grid, missing and dead positions). Reads every trace once.
  */
-import { resolve } from 'node:path';
 import type { CommandSpec } from '../args';
 import { parseCommandArgs } from '../args';
 import type { CliCommand, CliContext } from '../context';
 import { InputFileError, isInputFileError, type FileProblem } from '../../../core/problems';
 import { GATHER_KEY_NAMES, gatherGeometry, indexGathers, openSegy, parseGatherKey, readGather } from '../../../core/segy';
 import { openFileByteSource } from '../../host/file-source';
+import { resolveInputOrDemo } from '../../host/demo-files';
 
 export const inspectSpec: CommandSpec = {
   name: 'inspect',
   summary: 'Summarise a SEG-Y file and the geometry of each gather (spacing, missing and dead traces).',
-  positionals: [{ name: 'FILE', help: 'SEG-Y file to read (never modified)' }],
+  positionals: [{ name: 'FILE', help: 'SEG-Y file to read (never modified; default: the demo line)', optional: true }],
   options: [
     { name: 'key', kind: 'string', meta: 'NAME|BYTE', default: 'record', help: `trace header key that groups traces into gathers: ${Object.keys(GATHER_KEY_NAMES).join(', ')}, a field name, or a byte position BYTE[:2|:4]` },
     { name: 'spacing', kind: 'number', meta: 'M', help: 'trace spacing in metres (needed where headers carry no geometry; overrides the estimate otherwise)' },
@@ -51,7 +51,7 @@ export function formatRanges(values: readonly number[]): string {
 
 async function run(argv: readonly string[], ctx: CliContext): Promise<number> {
   const args = parseCommandArgs(inspectSpec, argv);
-  const path = resolve(ctx.cwd, args.positionals[0]);
+  const path = resolveInputOrDemo(args.positionals[0], ctx.cwd, ctx.stderr, 'inspect').path;
   const key = parseGatherKey(String(args.options.key));
   const spacingM = args.options.spacing as number | undefined;
   if (spacingM !== undefined && !(spacingM > 0))
