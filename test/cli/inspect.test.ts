@@ -50,7 +50,7 @@ describe('dipweave inspect (in process)', () => {
     [['inspect', `${FIXTURES}/nowhere.sgy`], 'input.file-not-found'],
     [['inspect', `${FIXTURES}/good.sgy`, '--key', 'nonsense'], 'segy.bad-key'],
     [['inspect', `${FIXTURES}/good.sgy`, '--spacing', '-3'], 'input.bad-argument'],
-    [['inspect'], 'input.bad-argument'],
+    [['inspect', '--no-such-option'], 'input.bad-argument'],
   ])('exit 2 with the coded message on stderr: %s', async (args, problem) => {
     const r = await run(args);
     expect(r.code).toBe(2);
