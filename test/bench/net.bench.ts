@@ -20,6 +20,8 @@ import { obstructedChannels } from '../../core/synth/marine-geometry';
 import { synthesizeMarineLine } from '../../core/synth/marine-shot';
 
 const quick = process.env.NET_BENCH_QUICK === '1';
+// NET_BENCH_ONLY=AB (for example) runs only those sections.
+const only = process.env.NET_BENCH_ONLY ?? 'ABC';
 const line = synthesizeMarineLine(DEMO_SCENARIO);
 const gapChannels = obstructedChannels(DEMO_SCENARIO, 0);
 const margin = 8;
@@ -71,7 +73,7 @@ out.push('');
 // all windows' snapshots at k, the time is the sum of the windows' times to k (snapshot evaluation excluded).
 const maxSteps = quick ? 200 : 900;
 const every = quick ? 100 : 150;
-{
+if (only.includes('A')) {
   const o = resolveNetOptions({ steps: maxSteps });
   const jobs = planNetWindows(scene.input.data, nT, nS, scene.input.unknownTraces, scene.input.slopePairs, o);
   const snaps = new Map<number, NetWindowFill[]>();
@@ -104,7 +106,7 @@ const every = quick ? 100 : 150;
 }
 
 // B. Wall time of complete runs on 1 and 2 worker threads (same result, bit for bit).
-{
+if (only.includes('B')) {
   out.push('### B. Complete fills on worker threads');
   out.push('');
   out.push('CPU seconds are those of the whole process (all threads, process.cpuUsage); on an otherwise idle machine the');
@@ -126,7 +128,7 @@ const every = quick ? 100 : 150;
 }
 
 // C. Study on one time window (160 samples around the strongest reflections): one setting changed at a time.
-{
+if (only.includes('C')) {
   const small = crop(160, 200);
   const base: NetSolverOptions = { steps: quick ? 100 : 400, windowSamples: 160 };
   const rows: [string, NetSolverOptions][] = [
