@@ -27,8 +27,9 @@ import { applyDipEdits, validateDipEdits, type DipEdit } from './edits';
 import { inpaintGapSlopes } from './gap';
 import { createGaussNewtonWorkspace, destructionConfidence, gaussNewtonSlopes, type GaussNewtonSettings, type SlopeObservations } from './gauss-newton';
 import { pairsToTracesUnchecked } from './pair-grid';
+import { settleIncoherentSlopes } from './settle';
 import { createTensorWorkspace, structureTensorSlopesUnchecked } from './tensor';
-import { createTriangle2D, triangle2DApply } from './triangle';
+import { createTriangle2D, triangle2DApply, triangleTimeUnchecked } from './triangle';
 import type { SlopeField, SlopeInfo, SlopeOptions } from './types';
 
 export const SLOPE_DEFAULTS = {
@@ -56,6 +57,8 @@ const TENSOR_CLAMP = 64;
  * look like vertical events to a structure tensor. */
 const MAX_MEASURABLE_SLOPE = 32;
 const BAND_MARGIN = 1.25;
+/** Destruction confidence a tensor slope needs to count in the steepest-slope measure. */
+const MEASURE_MIN_CONFIDENCE = 0.5;
 /** Every estimated |σ| is kept below max(MIN_SLOPE_BOUND, SLOPE_BOUND_FACTOR × steepest measured slope). */
 const MIN_SLOPE_BOUND = 3;
 const SLOPE_BOUND_FACTOR = 2;
@@ -172,8 +175,15 @@ export function measureSteepestSlope(u: Float64Array, nTraces: number, nSamples:
   let meanE = 0;
   for (let i = 0; i < n; i++) meanE += e[i];
   meanE /= Math.max(1, n);
+  // A tensor calls spatially incoherent traces (noise, a loud channel) coherent and near-vertical: count a slope
+  // only where plane-wave destruction at that slope really removes the data (confidence > 0.5, averaged over a
+  // window wide enough, ≥ 8 samples × 6 traces, that noise rarely passes by chance). Without this test pure noise
+  // measured 18 samples per trace and planned 4 levels.
+  let shift: Int32Array | null = null;
+  for (let i = 0; i < n; i++) if (Math.abs(s[i]) > GENTLE_SLOPE[1]) (shift ??= new Int32Array(n))[i] = Math.round(s[i]);
+  const dc = destructionConfidence(new Float64Array(n), lev.data, s, shift, pairLive, nTraces, lev.nSamples, 1, Math.max(8, Math.round(radiusTimeSamples / m)), Math.max(6, radiusTraces));
   const vals: number[] = [];
-  for (let i = 0; i < n; i++) if (c[i] > 0.7 && e[i] > 0.1 * meanE && Math.abs(s[i]) * m < MAX_MEASURABLE_SLOPE) vals.push(Math.abs(s[i]));
+  for (let i = 0; i < n; i++) if (c[i] > 0.7 && dc[i] > MEASURE_MIN_CONFIDENCE && e[i] > 0.1 * meanE && Math.abs(s[i]) * m < MAX_MEASURABLE_SLOPE) vals.push(Math.abs(s[i]));
   if (vals.length === 0) return 0;
   vals.sort((a, b) => a - b);
   return vals[Math.min(vals.length - 1, Math.floor(0.9 * vals.length))] * m;
@@ -202,7 +212,7 @@ interface WorkResult {
 
 function estimateOnWorkGrid(
   u: Float64Array, nTraces: number, nSamples: number, traceLive: Uint8Array, s: Resolved, levels: number, slopeBound: number,
-  observations: SlopeObservations | undefined, cancel: CancelToken | undefined, halvings?: Halvings,
+  observations: SlopeObservations | undefined, cancel: CancelToken | undefined, halvings?: Halvings, silent?: Uint8Array,
 ): WorkResult {
   const pairLive = pairLiveOf(traceLive);
   const nPairs = nTraces - 1;
@@ -265,7 +275,31 @@ function estimateOnWorkGrid(
     }
   }
   const conf = destructionConfidence(new Float64Array(sigma.length), u, sigma, shift, pairLive, nTraces, nSamples, s.order, s.radiusTimeSamples, s.radiusTraces);
+  // Silent stretches (before band limit and balance) say nothing, however coherent the filters' ringing there.
+  if (silent) for (let i = 0; i < conf.length; i++) if (silent[i]) conf[i] = 0;
+  // Quiet and incoherent zones: the fit there is arbitrary; settle to the trusted slopes around (settle.ts).
+  settleIncoherentSlopes(sigma, conf, nPairs, nSamples, s.radiusTimeSamples, s.radiusTraces);
   return { sigma, conf, residualStart, residualEnd };
+}
+
+/** Silence below this fraction of the gather's mean energy: the balance's floor (balance.ts) is 120 dB down. */
+const SILENT_FRACTION = 1e-10;
+
+/**
+ * Pair samples whose two traces are silent around them (true amplitudes, before band limit and balance, which
+ * spread ringing into silence and lift it to full level): time-smoothed energy below SILENT_FRACTION × the mean.
+ */
+function silentPairsOf(u: ArrayLike<number>, nTraces: number, nSamples: number, radiusTimeSamples: number): Uint8Array {
+  const nPairs = nTraces - 1;
+  const e = new Float64Array(nTraces * nSamples);
+  let mean = 0;
+  for (let i = 0; i < e.length; i++) { e[i] = u[i] * u[i]; mean += e[i]; }
+  mean /= Math.max(1, e.length);
+  triangleTimeUnchecked(e, e, nTraces, nSamples, radiusTimeSamples, new Float64Array(nSamples + radiusTimeSamples));
+  const out = new Uint8Array(nPairs * nSamples);
+  const floor = SILENT_FRACTION * mean;
+  for (let i = 0; i < out.length; i++) if (e[i] + e[i + nSamples] <= floor) out[i] = 1;
+  return out;
 }
 
 function liveMaskOf(data: ArrayLike<number>, nTraces: number, nSamples: number, liveTraces: Uint8Array): Uint8Array {
@@ -338,6 +372,7 @@ export function estimateSlopes(
       hint: k === 1 ? 'If live traces are every k-th position, give the decimation factor.' : 'Check the live-trace mask.',
     });
   throwIfCancelled(cancel);
+  const silent = silentPairsOf(work, nWork, nSamples, s.radiusTimeSamples);
   const lpOpt = options.lowpassCyclesPerSample ?? 'auto';
   if (typeof lpOpt === 'number' && !(lpOpt > 0 && lpOpt <= 0.5)) throw badOption('lowpassCyclesPerSample', lpOpt, 'in (0, 0.5], auto or off');
   // Band limit: incoherent noise above the signal band carries little energy but, weighted by the time
@@ -377,13 +412,13 @@ export function estimateSlopes(
     editRasterValue = new Float64Array(nFinePairs);
     editRasterWeight = new Float64Array(nFinePairs);
   }
-  let res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, undefined, cancel, halvings);
+  let res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, undefined, cancel, halvings, silent);
   if (editRasterValue && editRasterWeight) {
     const fine = grid ? coarsePairsToFinePairs(new Float64Array(nFinePairs), res.sigma, grid, nTraces, nSamples, 1 / k) : res.sigma.slice();
     applyDipEdits(fine, editRasterWeight, nTraces, nSamples, edits);
     editRasterValue.set(fine);
     observations = observationsOnWorkGrid(editRasterValue, editRasterWeight, grid, nTraces, nWork, nSamples);
-    res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, observations, cancel, halvings);
+    res = estimateOnWorkGrid(work, nWork, nSamples, workLive, s, levels, slopeBound, observations, cancel, halvings, silent);
   }
   const gapOpt = options.gapSlopes ?? 'along-events';
   if (gapOpt !== 'along-events' && gapOpt !== 'prior') throw badOption('gapSlopes', gapOpt, 'along-events or prior');
