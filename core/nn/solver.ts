@@ -32,7 +32,7 @@ export const NET_DEFAULTS: Required<Omit<NetSolverOptions, 'timeBudgetSeconds'>>
   featureSpread: 0.1,
   steps: 600,
   lambda: 'auto',
-  learningRate: 1e-2,
+  learningRate: 2e-2,
   learningRateFinalFraction: 0.1,
   warmupSteps: 50,
   priorWeight: 1,
