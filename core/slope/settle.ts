@@ -23,10 +23,12 @@ const EPS = 0.02;
 
 /**
  * In place on sigma. Allocates its scratch (called once per estimate).
+ * @param only  when given, only pair samples marked 1 may move (the others still inform the background)
  * @returns the number of pair samples that moved toward the background (keep < 1)
  */
 export function settleIncoherentSlopes(
   sigma: Float64Array, conf: Float64Array, nPairs: number, nSamples: number, radiusTimeSamples: number, radiusTraces: number,
+  only?: Uint8Array,
 ): number {
   const n = nPairs * nSamples;
   const w = new Float64Array(n), ws = new Float64Array(n);
@@ -35,7 +37,7 @@ export function settleIncoherentSlopes(
     const c = conf[i];
     w[i] = c;
     ws[i] = c * sigma[i];
-    if (c < SETTLE_HIGH) any = true;
+    if (c < SETTLE_HIGH && (!only || only[i])) any = true;
   }
   if (!any) return 0;
   const tri = createTriangle2D(nPairs, nSamples, Math.max(2, WIDE * radiusTimeSamples), Math.max(2, WIDE * radiusTraces));
@@ -45,7 +47,7 @@ export function settleIncoherentSlopes(
   const span = SETTLE_HIGH - SETTLE_LOW;
   for (let i = 0; i < n; i++) {
     const c = conf[i];
-    if (c >= SETTLE_HIGH) continue;
+    if (c >= SETTLE_HIGH || (only && !only[i])) continue;
     const keep = c <= SETTLE_LOW ? 0 : (c - SETTLE_LOW) / span;
     const bg = ws[i] / (w[i] + EPS);
     sigma[i] = keep * sigma[i] + (1 - keep) * bg;
