@@ -9,7 +9,7 @@
 import { BugError, isInputFileError, throwIfCancelled, type CancelToken } from '../problems';
 import { snrDb } from '../quality/snr';
 import { fillRmsRatio, gapRmsRatio, liftQuietFills } from './amplitude';
-import { clipWildSlopes, slopeEstimator, slopesForFill, type SlopeEstimator } from './fill-slopes';
+import { holdoutSlopesNearBlock, slopeEstimator, slopesForFill, type SlopeEstimator } from './fill-slopes';
 import type { SlopeOptions } from '../slope/index';
 import { solveGapsNet, type NetSolverOptions } from '../nn/solver';
 import { designHoldout, type HoldoutKind } from './holdout';
@@ -134,12 +134,9 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
   const solve = hooks.solvers?.[settings.solver] ?? BUILTIN_SOLVERS[settings.solver];
   if (!solve) throw new BugError(`fillGather: no solver registered under "${settings.solver}"`);
   const solverSettings = (settings.solver === 'lsq' ? settings.lsq : settings.net) as unknown as Record<string, unknown>;
-  let clippedSlopes = 0;
   const estimator = hooks.estimator ?? slopeEstimator(settings.slope);
   const estimate = (data: Float64Array, unk: Uint8Array, factor: number): Float64Array => {
-    const sl = slopesForFill(data, nTraces, nSamples, unk, estimator, factor, cancel);
-    clippedSlopes += clipWildSlopes(sl, data, unk, nTraces, nSamples);
-    return sl;
+    return slopesForFill(data, nTraces, nSamples, unk, estimator, factor, cancel);
   };
   const runSolver = async (data: Float64Array, unk: Uint8Array, slopes: Float64Array, stage: FillStage, f0: number, f1: number): Promise<GapSolverResult> => {
     const si: GapSolverInput = {
@@ -176,7 +173,11 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
       // reuses the slopes from all recorded traces: hiding every k-th trace doubles the spacing, and slopes
       // estimated on that 2k grid are far more aliased than the real problem's (measured: 3–11 dB hold-out
       // scores for 42–48 dB fills at k = 3, 4); the fill across the wider hole is still harder than the real one.
-      slopesH = input.slopePairs ?? (design.kind === 'decimation' || slopeProblem ? slopes1 : estimate(dH, unkH, plan.factor));
+      // A block hold-out re-estimates only a window of traces around the hidden block (fill-slopes.ts): the
+      // hold-out fill reads slopes only on the pairs beside and inside the block.
+      slopesH = input.slopePairs ?? (design.kind === 'decimation' || slopeProblem ? slopes1
+        : design.kind === 'block' && plan.factor <= 1 ? holdoutSlopesNearBlock(slopes1, dH, nTraces, nSamples, unkH, design.hidden, estimator, cancel)
+        : estimate(dH, unkH, plan.factor));
     } catch (e) {
       // The hidden traces can leave too little to estimate from; the fill itself stands, without a score.
       if (!isInputFileError(e)) throw e;
@@ -272,7 +273,6 @@ export async function fillGather(input: FillGatherInput, settingsIn: Partial<Fil
     details.largestAmplitudeLift = liftQuietFills(data, unknown, nTraces, nSamples);
     chosen = { ...chosen, data };
   }
-  details.clippedSlopeSamples = clippedSlopes;
   if (holdoutProblem) details.holdoutProblem = holdoutProblem;
   const filled = Float32Array.from(input.data);
   for (let x = 0; x < nTraces; x++) {
