@@ -37,7 +37,7 @@ export const SLOPE_DEFAULTS = {
   radiusTimeSamples: 6,
   radiusTraces: 3,
   order: 1,
-  outerIterations: 2,
+  outerIterations: 4,
   innerIterations: 4,
   stepLimit: 1,
 } as const;
@@ -57,6 +57,12 @@ const TENSOR_CLAMP = 64;
  * look like vertical events to a structure tensor. */
 const MAX_MEASURABLE_SLOPE = 32;
 const BAND_MARGIN = 1.25;
+/**
+ * Gauss-Newton stops once a step moves the fitted slopes by less than this rms (samples per trace). Measured first
+ * steps: 0.004–0.02 on analytic gathers (the second adds 0.001–0.005), 0.24–0.54 on the demo line, where the
+ * third step still moves 0.06–0.11; so clean data stop after one step and hard data get up to outerIterations.
+ */
+const CONVERGED_STEP = 0.02;
 /** Share of the gradient energy at coherence > 0.7 below which a gather is taken as holding no events. */
 const MEASURE_MIN_COHERENT_SHARE = 0.05;
 /** Every estimated |σ| is kept below max(MIN_SLOPE_BOUND, SLOPE_BOUND_FACTOR × steepest measured slope). */
@@ -111,6 +117,7 @@ function resolveOptions(o: SlopeOptions): Resolved {
     outerIterations: o.outerIterations ?? SLOPE_DEFAULTS.outerIterations,
     innerIterations: o.innerIterations ?? SLOPE_DEFAULTS.innerIterations,
     stepLimit: o.stepLimit ?? SLOPE_DEFAULTS.stepLimit,
+    convergedStep: CONVERGED_STEP,
   };
   if (r.method !== 'pwd' && r.method !== 'tensor') throw badOption('method', r.method, 'pwd or tensor');
   for (const [k, v, lo, hi] of [['radiusTimeSamples', r.radiusTimeSamples, 1, 500], ['radiusTraces', r.radiusTraces, 1, 200], ['outerIterations', r.outerIterations, 1, 50], ['innerIterations', r.innerIterations, 1, 500]] as const)

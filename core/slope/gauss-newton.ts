@@ -23,6 +23,8 @@ export interface GaussNewtonSettings {
   readonly stepLimit: number;
   readonly radiusTimeSamples: number;
   readonly radiusTraces: number;
+  /** Stop after a step whose rms change of σ over fitted samples is below this (samples per trace). */
+  readonly convergedStep?: number;
 }
 
 export interface SlopeObservations {
@@ -128,11 +130,16 @@ export function gaussNewtonSlopes(
     const rep = smoothDivideUnchecked(ws.divide, delta, num, den, s.innerIterations, 1e-6, lambda2);
     inner += rep.iterations;
     const lim = s.stepLimit;
+    let step2 = 0;
     for (let i = 0; i < n; i++) {
       const target = prior[i] + delta[i];
       const old = sigma[i];
-      sigma[i] = target > old + lim ? old + lim : target < old - lim ? old - lim : target;
+      const v = target > old + lim ? old + lim : target < old - lim ? old - lim : target;
+      sigma[i] = v;
+      if (w[i] > 0) step2 += (v - old) * (v - old);
     }
+    // Converged: the step moved the fitted slopes by less than convergedStep (rms, samples per trace).
+    if (s.convergedStep !== undefined && count > 0 && Math.sqrt(step2 / count) < s.convergedStep) { outer++; break; }
   }
   destructionResidualAndSlopeDerivativeUnchecked(r, g, w, u, sigma, shift, pairLive, nTraces, nSamples, s.order);
   const res1 = residualEnergy(ws) / uEnergy;

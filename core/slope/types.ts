@@ -17,7 +17,8 @@ export interface SlopeOptions {
   readonly radiusTraces?: number;
   /** Destruction filter: 1 = 3-point (default), 2 = 5-point. */
   readonly order?: PwdOrder;
-  /** Gauss-Newton steps per resolution level (default 2; each coarse-to-fine level adds its own). */
+  /** Most Gauss-Newton steps per resolution level (default 4; each coarse-to-fine level adds its own; a level
+   * stops earlier once a step moves the slopes by less than 0.02 samples per trace rms). */
   readonly outerIterations?: number;
   /** Conjugate-gradient steps per smooth division (default 4; warm-started across Gauss-Newton steps). */
   readonly innerIterations?: number;
