@@ -23,7 +23,7 @@ export interface GaussNewtonSettings {
   readonly stepLimit: number;
   readonly radiusTimeSamples: number;
   readonly radiusTraces: number;
-  /** Stop after a step whose rms change of σ over fitted samples is below this (samples per trace). */
+  /** Stop after a step (from the second on) whose rms change of σ over fitted samples is below this (samples per trace). */
   readonly convergedStep?: number;
 }
 
@@ -139,7 +139,7 @@ export function gaussNewtonSlopes(
       if (w[i] > 0) step2 += (v - old) * (v - old);
     }
     // Converged: the step moved the fitted slopes by less than convergedStep (rms, samples per trace).
-    if (s.convergedStep !== undefined && count > 0 && Math.sqrt(step2 / count) < s.convergedStep) { outer++; break; }
+    if (outer >= 1 && s.convergedStep !== undefined && count > 0 && Math.sqrt(step2 / count) < s.convergedStep) { outer++; break; }
   }
   destructionResidualAndSlopeDerivativeUnchecked(r, g, w, u, sigma, shift, pairLive, nTraces, nSamples, s.order);
   const res1 = residualEnergy(ws) / uEnergy;

@@ -18,7 +18,7 @@ export interface SlopeOptions {
   /** Destruction filter: 1 = 3-point (default), 2 = 5-point. */
   readonly order?: PwdOrder;
   /** Most Gauss-Newton steps per resolution level (default 4; each coarse-to-fine level adds its own; a level
-   * stops earlier once a step moves the slopes by less than 0.02 samples per trace rms). */
+   * stops after two once a step moves the slopes by less than 0.02 samples per trace rms). */
   readonly outerIterations?: number;
   /** Conjugate-gradient steps per smooth division (default 4; warm-started across Gauss-Newton steps). */
   readonly innerIterations?: number;
