@@ -25,7 +25,7 @@ import { halveTime } from './halve';
 import { coarseGridOf, coarsePairsToFinePairs, detectDecimationFactor, extractCoarse, finePairOfCoarsePair, type CoarseGrid } from './decimation';
 import { applyDipEdits, validateDipEdits, type DipEdit } from './edits';
 import { inpaintGapSlopes } from './gap';
-import { createGaussNewtonWorkspace, destructionConfidence, gaussNewtonSlopes, type GaussNewtonSettings, type SlopeObservations } from './gauss-newton';
+import { createGaussNewtonWorkspace, destructionConfidence, gaussNewtonSlopes, type GaussNewtonSettings, type GaussNewtonWorkspace, type SlopeObservations } from './gauss-newton';
 import { pairsToTracesUnchecked } from './pair-grid';
 import { settleIncoherentSlopes } from './settle';
 import { createTensorWorkspace, structureTensorSlopesUnchecked } from './tensor';
@@ -243,6 +243,7 @@ function estimateOnWorkGrid(
   let sigma = prior;
   // One workspace at the finest size; coarser levels use views into it.
   const finest = levels > 0 ? createGaussNewtonWorkspace(nTraces, nSamples, Math.max(2, s.radiusTimeSamples), s.radiusTraces) : undefined;
+  let ws: GaussNewtonWorkspace | undefined;
   for (let l = levels; l >= 0; l--) {
     const lev = pyramid[l];
     const m = 2 ** l;
@@ -270,7 +271,7 @@ function estimateOnWorkGrid(
         shift[i] = Math.round(prior[i]);
       }
     }
-    const ws = createGaussNewtonWorkspace(nTraces, lev.nSamples, rt, s.radiusTraces, finest);
+    ws = createGaussNewtonWorkspace(nTraces, lev.nSamples, rt, s.radiusTraces, finest);
     const outer = s.outerIterations;
     const rep = gaussNewtonSlopes(ws, sigma, lev.data, pairLive, prior, shift, { ...s, radiusTimeSamples: rt, outerIterations: outer }, l === 0 ? observations : undefined, cancel);
     // Incoherent zones may wander: keep every slope within the planned bound.
@@ -281,7 +282,7 @@ function estimateOnWorkGrid(
       residualEnd = rep.residualEnd;
     }
   }
-  const conf = destructionConfidence(new Float64Array(sigma.length), u, sigma, shift, pairLive, nTraces, nSamples, s.order, s.radiusTimeSamples, s.radiusTraces);
+  const conf = destructionConfidence(new Float64Array(sigma.length), u, sigma, shift, pairLive, nTraces, nSamples, s.order, s.radiusTimeSamples, s.radiusTraces, ws);
   // Silent stretches (before band limit and balance) say nothing, however coherent the filters' ringing there.
   if (silent) for (let i = 0; i < conf.length; i++) if (silent[i]) conf[i] = 0;
   // Quiet and incoherent zones: the fit there is arbitrary; settle to the trusted slopes around (settle.ts).

@@ -150,14 +150,17 @@ export function gaussNewtonSlopes(
  * Confidence from the normalised destruction residual (pair grid, [0, 1]):
  *   c = 1 − T(w r²) / T(w e),  e = energy of the two filtered sides (destruction.ts),
  * 1 for a perfectly destroyed plane wave, about 0 for incoherent traces; 0 where no stencil fits.
- * Allocates its scratch (called once per estimate).
+ * Allocates its scratch unless a Gauss-Newton workspace of this size is passed (its buffers are overwritten).
  */
 export function destructionConfidence(
   out: Float64Array, u: ArrayLike<number>, sigma: Float64Array, shift: Int32Array | null, pairLive: Uint8Array,
   nTraces: number, nSamples: number, order: PwdOrder, radiusTimeSamples: number, radiusTraces: number,
+  scratch?: GaussNewtonWorkspace,
 ): Float64Array {
   const n = (nTraces - 1) * nSamples;
-  const r = new Float64Array(n), g = new Float64Array(n), w = new Float64Array(n), e = new Float64Array(n);
+  const fits = scratch !== undefined && scratch.nTraces === nTraces && scratch.nSamples === nSamples;
+  const r = fits ? scratch.r : new Float64Array(n), g = fits ? scratch.g : new Float64Array(n);
+  const w = fits ? scratch.w : new Float64Array(n), e = fits ? scratch.num : new Float64Array(n);
   destructionResidualAndSlopeDerivativeUnchecked(r, g, w, u, sigma, shift, pairLive, nTraces, nSamples, order);
   destructionSideEnergyUnchecked(e, u, sigma, shift, pairLive, nTraces, nSamples, order);
   for (let i = 0; i < n; i++) r[i] = w[i] * r[i] * r[i];
