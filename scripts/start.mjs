@@ -11,6 +11,7 @@ import { createServer } from 'node:http';
 import { createRequire } from 'node:module';
 import { dirname, extname, join, sep } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { CONTENT_SECURITY_POLICY, ISOLATION_HEADERS } from '../app/shared/web-policy.mjs';
 
 const ROOT = new URL('..', import.meta.url).pathname;
 
@@ -41,26 +42,7 @@ export function electronStatus(root = ROOT, env = process.env) {
   return { available: true, binaryPath: binary, reason: 'installed' };
 }
 
-export const ISOLATION_HEADERS = {
-  'Cross-Origin-Opener-Policy': 'same-origin',
-  'Cross-Origin-Embedder-Policy': 'require-corp',
-  'Cross-Origin-Resource-Policy': 'same-origin',
-};
-
-// Same policy as the desktop window (app/main/app-protocol.ts).
-export const CONTENT_SECURITY_POLICY = [
-  "default-src 'self'",
-  "script-src 'self'",
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "worker-src 'self' blob:",
-  "connect-src 'self' blob: data:",
-  "object-src 'none'",
-  "base-uri 'none'",
-  "form-action 'none'",
-  "frame-ancestors 'none'",
-].join('; ');
+export { CONTENT_SECURITY_POLICY, ISOLATION_HEADERS };
 
 const MIME = {
   '.html': 'text/html; charset=utf-8',

@@ -12,26 +12,8 @@ export const APP_HOST = 'bundle';
 export const APP_ORIGIN = `${APP_SCHEME}://${APP_HOST}`;
 export const APP_START_URL = `${APP_ORIGIN}/index.html`;
 
-/** No remote content: everything comes from the bundle; workers may be blob: URLs; no eval. */
-export const CONTENT_SECURITY_POLICY = [
-  "default-src 'self'",
-  "script-src 'self'",
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "worker-src 'self' blob:",
-  "connect-src 'self' blob: data:",
-  "object-src 'none'",
-  "base-uri 'none'",
-  "form-action 'none'",
-  "frame-ancestors 'none'",
-].join('; ');
-
-export const ISOLATION_HEADERS: Readonly<Record<string, string>> = {
-  'Cross-Origin-Opener-Policy': 'same-origin',
-  'Cross-Origin-Embedder-Policy': 'require-corp',
-  'Cross-Origin-Resource-Policy': 'same-origin',
-};
+export { CONTENT_SECURITY_POLICY, ISOLATION_HEADERS } from '../shared/web-policy.mjs';
+import { CONTENT_SECURITY_POLICY, ISOLATION_HEADERS } from '../shared/web-policy.mjs';
 
 const MIME: Readonly<Record<string, string>> = {
   '.html': 'text/html; charset=utf-8',
